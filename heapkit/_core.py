@@ -1,0 +1,449 @@
+"""What every kind shares: handle ownership, stable ordering, meld, copy, pickle.
+
+The kind SPI
+============
+A kind subclasses :class:`HeapBase` and keeps, in its own module, beside its code:
+
+* the protocol operations ``push, peek, pop, decrease_key, change_key, remove,
+  clear`` (the base class supplies ``extend, meld, __len__, __bool__, __iter__,
+  __contains__, __repr__``, copy and pickle);
+* ``_meld_from(other)``: move every entry of ``other`` (same class, same
+  options) into ``self``, atomically; the base then fixes sizes, ownership and
+  empties ``other`` with ``other._reset()``;
+* ``_reset()``: forget the structure (no unlinking; the base or ``clear`` kills
+  handles);
+* ``_handles()``: every live handle, iteratively;
+* ``_export() -> (handles, layout)`` and ``_import(handles, layout)``: the exact
+  shape as flat data (no recursion), for copy, deepcopy and pickle;
+* ``_map_order(fn)``: replace every stored ordering object ``o`` of a handle
+  ``h`` by ``fn(o, h.key)`` without comparing anything (the auditor uses it);
+* ``_survey(report) -> dict``: check every rule in ``RULES`` in O(n),
+  iteratively, calling ``report.fail(rule, handle, path, detail)``; return the
+  figures of :class:`heapkit.Shape` (``size, roots, height, max_degree, marked,
+  potential, details``);
+* class attributes ``KIND`` (its name in ``heapkit.KINDS``), ``RULES``
+  (rule name -> what it demands), ``WORST_CASE`` (bounds are worst-case, not
+  amortized), ``COST_UNIT``, ``POTENTIAL`` (text) and ``PHI_C``.
+
+Ordering objects
+================
+Every kind compares ``node._k``, never the user's key directly.  ``_k`` is the
+key itself unless the heap wraps it: ``stable=True`` wraps it in
+:class:`Stable` (push order breaks ties with one ``<`` per comparison) and an
+audit adds a counting layer.  ``self._wrap(key, old)`` makes the object
+(``old``: the entry's previous ordering object, whose push order it keeps), or
+is None when keys are compared bare.
+
+Failure rules
+=============
+Kinds compare before they mutate, or keep the old shape until the new one is
+complete, so an exception from a key's ``<`` leaves the same entries, the same
+live handles and every rule intact.
+"""
+
+from __future__ import annotations
+
+import itertools
+from collections.abc import Callable, Iterable, Iterator
+from typing import TYPE_CHECKING, Any, ClassVar, Generic, TypeVar
+
+from heapkit.errors import EmptyHeapError, InvalidHandleError, KeyOrderError
+from heapkit.protocol import Heap
+
+if TYPE_CHECKING:
+    from typing import Self
+
+K = TypeVar("K")
+V = TypeVar("V")
+
+Wrap = Callable[[Any, Any], Any]
+
+#: Push order within the process, shared by every stable heap so that order
+#: survives meld.  ``next()`` on a count is atomic under the GIL.
+_SEQ = itertools.count()
+
+#: Called with every heap constructed while ``HEAPKIT_DEBUG`` asks for it.
+on_new: Callable[[HeapBase[Any, Any]], None] | None = None
+
+#: Wrapper types that carry an ``inner`` ordering object (the auditor adds its own).
+WRAPPERS: set[type] = set()
+
+
+class Stable:
+    """Ordering object of a stable heap: ``(key, push order)`` compared with one ``<``.
+
+    If ``a`` was pushed first, ``a`` comes first unless ``b.key < a.key``;
+    otherwise ``b`` comes first unless ``a.key < b.key``.  Never equal to
+    anything, so a tuple holding it compares no further.
+    """
+
+    __slots__ = ("key", "seq")
+
+    def __init__(self, key: Any, seq: int) -> None:
+        self.key = key
+        self.seq = seq
+
+    def __lt__(self, other: Stable) -> bool:
+        if self.seq < other.seq:
+            return not other.key < self.key
+        return bool(self.key < other.key)
+
+    def __eq__(self, other: object) -> bool:
+        return False
+
+    __hash__ = None  # type: ignore[assignment]
+
+    def __repr__(self) -> str:
+        return f"{self.key!r}#{self.seq}"
+
+
+def stable_wrap(key: Any, old: Any) -> Stable:
+    """Make the :class:`Stable` ordering object of ``key`` (keeping ``old``'s push order)."""
+    seq = None if old is None else seq_of(old)
+    return Stable(key, next(_SEQ) if seq is None else seq)
+
+
+def seq_of(o: Any) -> int | None:
+    """The push order inside an ordering object, or None where it has none."""
+    while True:
+        t = type(o)
+        if t is Stable:
+            return int(o.seq)
+        if t not in WRAPPERS:
+            return None
+        o = o.inner
+
+
+class Owner:
+    """Ownership token.  A heap holds one; a handle points at its heap's token.
+
+    ``meld`` forwards the absorbed heap's token to the absorbing heap's
+    (``up``), so a meld is O(1) and ownership is found by following ``up`` with
+    path halving: near-constant amortized (Tarjan 1975, union-find).
+    """
+
+    __slots__ = ("up",)
+
+    def __init__(self) -> None:
+        self.up: Owner | None = None
+
+
+def owner_root(tok: Owner) -> Owner:
+    """The token that ``tok`` forwards to, halving the path on the way."""
+    up = tok.up
+    while up is not None:
+        nxt = up.up
+        if nxt is None:
+            return up
+        tok.up = nxt
+        tok = nxt
+        up = tok.up
+    return tok
+
+
+class HandleBase(Generic[K, V]):
+    """A handle that is also the kind's node: ``key``, ``value``, ``alive``.
+
+    Slots: ``_key`` (the user's key), ``_k`` (the ordering object compared),
+    ``value``, ``_tok`` (the owner token, None once dead).
+    """
+
+    __slots__ = ("_k", "_key", "_tok", "value")
+    _key: K
+    _k: Any
+    _tok: Any
+    value: V
+
+    @property
+    def key(self) -> K:
+        """The entry's key (read-only; change it through the heap)."""
+        return self._key
+
+    @property
+    def alive(self) -> bool:
+        """True while the entry is in a heap."""
+        return self._tok is not None
+
+    def __repr__(self) -> str:
+        state = "" if self._tok is not None else ", dead"
+        return f"<handle key={self._key!r} value={self.value!r}{state}>"
+
+    def __reduce__(self) -> tuple[Any, ...]:
+        return (revive, (type(self), self._key, self.value, seq_of(self._k)))
+
+
+def revive(cls: type[Any], key: Any, value: Any, seq: int | None) -> Any:
+    """Rebuild a detached, dead handle of ``cls`` (its heap relinks it)."""
+    h = cls(key, key if seq is None else Stable(key, seq), value, None)
+    return h
+
+
+def nan_error(op: str, key: object) -> KeyOrderError:
+    return KeyOrderError(f"{op}: key {key!r} is not equal to itself (NaN cannot be ordered)")
+
+
+def empty_error(op: str) -> EmptyHeapError:
+    return EmptyHeapError(f"{op}: the heap is empty")
+
+
+def upward_error(handle: object, key: object) -> KeyOrderError:
+    cur = getattr(handle, "key", None)
+    return KeyOrderError(
+        f"decrease_key: new key {key!r} is larger than the current key {cur!r} of {handle!r}; "
+        "use change_key to move a key up"
+    )
+
+
+class HeapBase(Generic[K, V]):
+    """Shared machinery of every kind (see the module docstring for the SPI)."""
+
+    __slots__ = ("__weakref__", "_ext", "_n", "_stable", "_tok", "_ver", "_wrap")
+
+    KIND: ClassVar[str] = ""
+    RULES: ClassVar[dict[str, str]] = {}
+    WORST_CASE: ClassVar[bool] = False
+    COST_UNIT: ClassVar[str] = ""
+    POTENTIAL: ClassVar[str] = ""
+    PHI_C: ClassVar[float] = 1.0
+
+    _tok: Owner
+    _n: int
+    _ver: int
+    _wrap: Wrap | None
+    _stable: bool
+    _ext: Any
+
+    def _setup(self, stable: bool) -> None:
+        """Initialise the shared fields; kinds call it first in ``__init__``."""
+        if not isinstance(stable, bool):
+            raise TypeError(f"stable must be True or False, got {stable!r}")
+        self._tok = Owner()
+        self._n = 0
+        self._ver = 0
+        self._stable = stable
+        self._wrap = stable_wrap if stable else None
+        self._ext = None
+
+    def _finish_init(self, pairs: Iterable[tuple[K, V]]) -> None:
+        """Load the constructor's pairs and honour ``HEAPKIT_DEBUG``; kinds call it last."""
+        if pairs:
+            self.extend(pairs)
+        if on_new is not None:
+            on_new(self)
+
+    # --- what the kind supplies -------------------------------------------------
+    def _options(self) -> dict[str, object]:
+        """Constructor options besides ``stable`` (they must match for ``meld``)."""
+        return {}
+
+    def _family(self) -> type:
+        """The class whose structure this heap has (checked/audited modes share it)."""
+        for c in type(self).__mro__:
+            if "KIND" in c.__dict__:
+                return c
+        return type(self)  # pragma: no cover - every kind sets KIND
+
+    def _meld_from(self, other: Self) -> None:
+        raise NotImplementedError
+
+    def _reset(self) -> None:
+        raise NotImplementedError
+
+    def _handles(self) -> Iterator[Any]:
+        raise NotImplementedError
+
+    def _export(self) -> tuple[list[Any], Any]:
+        raise NotImplementedError
+
+    def _import(self, handles: list[Any], layout: Any) -> None:
+        raise NotImplementedError
+
+    def _map_order(self, fn: Callable[[Any, Any], Any]) -> None:
+        raise NotImplementedError
+
+    def _survey(self, report: Any) -> dict[str, Any]:
+        raise NotImplementedError
+
+    def _kill(self, h: Any) -> None:
+        """Make a handle dead and drop its links (kinds with more links extend it)."""
+        h._tok = None
+
+    # --- shared protocol members ------------------------------------------------
+    def __len__(self) -> int:
+        """Number of entries.  O(1) worst-case."""
+        return self._n
+
+    def __bool__(self) -> bool:
+        return self._n != 0
+
+    def __iter__(self) -> Iterator[Any]:
+        """Every live handle, no order promised.  O(n) for the whole iteration.
+
+        Raises ``RuntimeError`` if the heap changes while it runs.
+        """
+        ver = self._ver
+        for h in self._handles():
+            if self._ver != ver:
+                raise RuntimeError(f"{type(self).__name__} changed during iteration")
+            yield h
+        if self._ver != ver:
+            raise RuntimeError(f"{type(self).__name__} changed during iteration")
+
+    def __contains__(self, handle: object) -> bool:
+        """True if ``handle`` is live in this heap.  O(1) amortized."""
+        tok = getattr(handle, "_tok", None)
+        if not isinstance(tok, Owner):
+            return False
+        return tok is self._tok or owner_root(tok) is self._tok
+
+    def _claim(self, h: Any, op: str) -> None:
+        """Slow path of the ownership check: raise unless ``h`` is live here.
+
+        The fast path in each kind is ``h._tok is self._tok``; this runs when it
+        fails, follows meld forwarding, and shortens the handle's path.
+        """
+        tok = getattr(h, "_tok", None)
+        if not isinstance(tok, Owner):
+            if tok is None and isinstance(h, HandleBase | LeafHandle):
+                raise InvalidHandleError(
+                    f"{op}: handle {h!r} is dead (its entry was popped, removed or cleared)"
+                )
+            raise TypeError(f"{op}: expected a handle returned by push, got {h!r}")
+        if owner_root(tok) is not self._tok:
+            raise InvalidHandleError(f"{op}: handle {h!r} belongs to another heap")
+        h._tok = self._tok
+
+    def extend(self, pairs: Iterable[tuple[K, V]]) -> list[Any]:
+        """Insert every ``(key, value)`` pair; all or nothing.
+
+        Builds a separate heap of the new entries, then melds it in, so a bad
+        pair or a failing comparison leaves this heap as it was.  Cost: the
+        kind's build (O(k) for most kinds) plus one ``meld``.
+
+        >>> from heapkit import PairingHeap
+        >>> h = PairingHeap()
+        >>> [x.key for x in h.extend([(3, 'c'), (1, 'a')])]
+        [3, 1]
+        >>> h.pop()
+        (1, 'a')
+        """
+        tmp = self._spawn()
+        handles = tmp._build(pairs)
+        if handles:
+            self.meld(tmp)
+        return handles
+
+    def _build(self, pairs: Iterable[tuple[K, V]]) -> list[Any]:
+        """Fill an empty heap from pairs (kinds may override with an O(n) build)."""
+        push = self.push  # type: ignore[attr-defined]
+        return [push(k, v) for k, v in pairs]
+
+    def _spawn(self) -> Self:
+        """An empty heap of the same class and options."""
+        return self._family()(stable=self._stable, **self._options())  # type: ignore[no-any-return]
+
+    def meld(self, other: Heap[K, V] | HeapBase[K, V]) -> None:
+        """Move every entry of ``other`` into this heap; ``other`` is left empty.
+
+        Handles from ``other`` stay valid and now belong to this heap.  Cost: the
+        kind's meld bound (O(1) for pairing and Fibonacci heaps).
+
+        >>> from heapkit import PairingHeap
+        >>> a, b = PairingHeap(), PairingHeap()
+        >>> h = b.push(1, 'x')
+        >>> a.meld(b)
+        >>> h in a, len(b)
+        (True, 0)
+        """
+        if other is self:
+            raise ValueError(f"meld: cannot meld a {type(self).__name__} into itself")
+        if not isinstance(other, HeapBase) or other._family() is not self._family():
+            raise TypeError(
+                f"meld: expected another {self._family().__name__}, got {type(other).__name__}"
+            )
+        if other._stable != self._stable or other._options() != self._options():
+            mine = {"stable": self._stable, **self._options()}
+            theirs = {"stable": other._stable, **other._options()}
+            raise TypeError(f"meld: options differ: {mine!r} here, {theirs!r} there")
+        if other._wrap is not self._wrap:
+            other._rewrap(self._wrap)
+        if other._n:
+            self._meld_from(other)
+            self._n += other._n
+        old = other._tok
+        old.up = self._tok
+        other._tok = Owner()
+        other._n = 0
+        other._reset()
+        self._ver += 1
+        other._ver += 1
+
+    def _rewrap(self, wrap: Wrap | None) -> None:
+        """Re-make every ordering object with ``wrap``, keeping push order."""
+
+        def fn(o: Any, key: Any) -> Any:
+            seq = seq_of(o)
+            if wrap is None:
+                return key
+            return wrap(key, None if seq is None else Stable(key, seq))
+
+        self._map_order(fn)
+        self._wrap = wrap
+
+    def clear(self) -> None:
+        """Remove every entry; every handle becomes dead.  O(n) worst-case.
+
+        >>> from heapkit import PairingHeap
+        >>> h = PairingHeap([(2, 'b')])
+        >>> x = h.peek(); h.clear()
+        >>> len(h), x.alive
+        (0, False)
+        """
+        kill = self._kill
+        for h in list(self._handles()):
+            kill(h)
+        self._reset()
+        self._n = 0
+        self._tok = Owner()
+        self._ver += 1
+
+    def __repr__(self) -> str:
+        name = type(self).__name__
+        opts = "".join(f", {k}={v!r}" for k, v in self._options().items())
+        if self._stable:
+            opts += ", stable=True"
+        if not self._n:
+            return f"<{name} empty{opts}>"
+        top = self.peek()  # type: ignore[attr-defined]
+        return f"<{name} n={self._n} min=({top.key!r}, {top.value!r}){opts}>"
+
+    # --- copy and pickle: flat data, never recursion --------------------------
+    def __reduce__(self) -> tuple[Any, ...]:
+        handles, layout = self._export()
+        return (_restore, (self._family(), self._stable, self._options()), (handles, layout))
+
+    def __setstate__(self, state: tuple[list[Any], Any]) -> None:
+        handles, layout = state
+        tok = self._tok
+        for h in handles:
+            h._tok = tok
+        self._import(handles, layout)
+        self._n = len(handles)
+
+    def __copy__(self) -> Self:
+        """A new heap with the same entries (keys and values shared) and new handles."""
+        handles, layout = self._export()
+        new = _restore(self._family(), self._stable, self._options())
+        fresh = [type(h)(h._key, h._k, h.value, None) for h in handles]
+        new.__setstate__((fresh, layout))
+        return new  # type: ignore[no-any-return]
+
+
+class LeafHandle(Generic[K, V]):
+    """Base of handles that are not the kind's node (they point at it)."""
+
+    __slots__ = ()
+
+
+def _restore(cls: type[Any], stable: bool, options: dict[str, object]) -> Any:
+    return cls(stable=stable, **options)

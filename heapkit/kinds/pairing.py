@@ -1,0 +1,494 @@
+"""Pairing heap: a heap-ordered multiway tree, children in a sibling list.
+
+Invariants
+----------
+* heap order: ``not (child.k < parent.k)`` for every parent/child pair;
+* links: ``root.prev = root.next = None``; the first child's ``prev`` is its
+  parent, every other child's ``prev`` is its left sibling, ``x.next.prev = x``;
+* size: the nodes reachable from the root number ``len(heap)``, none twice;
+* ownership: every node's owner token resolves to the heap's token.
+
+Bounds (amortized unless said)
+------------------------------
+push, peek, meld: O(1) worst-case.  pop, remove, decrease_key, change_key:
+O(log n) amortized (Fredman et al. 1986).  The standard potential is
+``Phi = sum over nodes x of log2(size of x's subtree in the binary view)``,
+where the binary view takes ``child`` as left and ``next`` as right.
+
+Source: M. L. Fredman, R. Sedgewick, D. D. Sleator, R. E. Tarjan, "The pairing
+heap: a new form of self-adjusting heap", Algorithmica 1 (1986) 111-129.
+Two-pass pairing: link children in pairs left to right, then fold the results
+right to left.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Callable, Iterable, Iterator
+from typing import Any, ClassVar, Generic, TypeVar
+
+from heapkit._core import (
+    HandleBase,
+    HeapBase,
+    empty_error,
+    nan_error,
+    upward_error,
+)
+from heapkit.protocol import Handle
+
+__all__ = ["PairingHeap"]
+
+K = TypeVar("K")
+V = TypeVar("V")
+
+
+class _Node(HandleBase[K, V]):
+    """Handle and tree node: ``_child`` (leftmost), ``_next`` (right sibling),
+    ``_prev`` (left sibling, or the parent for a leftmost child)."""
+
+    __slots__ = ("_child", "_next", "_prev")
+
+    def __init__(self, key: K, k: Any, value: V, tok: Any) -> None:
+        self._key = key
+        self._k = k
+        self.value = value
+        self._tok = tok
+        self._child: Any = None
+        self._next: Any = None
+        self._prev: Any = None
+
+
+# Precondition: a and b are detached roots (prev and next are None).
+# Restores: one detached root holding both trees; compares before it links.
+def _link(a: Any, b: Any) -> Any:
+    if b._k < a._k:
+        a, b = b, a
+    c = a._child
+    b._next = c
+    if c is not None:
+        c._prev = b
+    b._prev = a
+    a._child = b
+    return a
+
+
+# Precondition: trees are detached roots, rest is a sibling chain or None.
+# Restores: all of them are parent's children again (order: trees, then rest).
+def _adopt(parent: Any, trees: list[Any], rest: Any) -> None:
+    head = rest
+    for t in reversed(trees):
+        t._next = head
+        if head is not None:
+            head._prev = t
+        head = t
+    parent._child = head
+    if head is not None:
+        head._prev = parent
+
+
+# Precondition: parent is a node whose children are heap-ordered trees.
+# Restores: returns those children merged into one detached tree (two-pass
+# pairing) and leaves parent childless.  If a comparison raises, every tree goes
+# back under parent (which is no larger than any of them) before it propagates.
+def _pair_children(parent: Any) -> Any:
+    x = parent._child
+    if x is None:
+        return None
+    trees: list[Any] = []
+    try:
+        while x is not None:
+            y = x._next
+            if y is None:
+                x._prev = None
+                trees.append(x)
+                x = None
+                break
+            rest = y._next
+            if y._k < x._k:
+                win, lose = y, x
+            else:
+                win, lose = x, y
+            c = win._child
+            lose._next = c
+            if c is not None:
+                c._prev = lose
+            lose._prev = win
+            win._child = lose
+            win._next = None
+            win._prev = None
+            trees.append(win)
+            x = rest
+    except BaseException:
+        _adopt(parent, trees, x)
+        raise
+    i = len(trees) - 1
+    acc = trees[i]
+    try:
+        while i > 0:
+            acc = _link(trees[i - 1], acc)
+            i -= 1
+    except BaseException:
+        trees[i] = acc
+        _adopt(parent, trees[: i + 1], None)
+        raise
+    parent._child = None
+    return acc
+
+
+# Precondition: x is a non-root node.  Restores: x is detached (its subtree
+# goes with it), its former siblings and parent linked around the gap.
+def _cut(x: Any) -> None:
+    p = x._prev
+    n = x._next
+    if p._child is x:
+        p._child = n
+    else:
+        p._next = n
+    if n is not None:
+        n._prev = p
+    x._prev = None
+    x._next = None
+
+
+# Precondition: root is the root, x a detached tree no smaller than root.
+# Restores: x is root's leftmost child.  No comparison.
+def _hang(root: Any, x: Any) -> None:
+    c = root._child
+    x._next = c
+    if c is not None:
+        c._prev = x
+    x._prev = root
+    root._child = x
+
+
+class PairingHeap(HeapBase[K, V], Generic[K, V]):
+    """Two-pass pairing heap with handles.
+
+    >>> h = PairingHeap([(5, 'e'), (2, 'b')])
+    >>> x = h.push(9, 'i')
+    >>> h.decrease_key(x, 1)
+    >>> h.pop(), h.pop(), len(h)
+    ((1, 'i'), (2, 'b'), 1)
+    """
+
+    __slots__ = ("_root",)
+
+    KIND: ClassVar[str] = "pairing"
+    RULES: ClassVar[dict[str, str]] = {
+        "heap-order": "no child is smaller than its parent",
+        "links": "prev/next/child links agree; the root has no siblings; no node twice",
+        "size": "the nodes reachable from the root number len(heap)",
+        "ownership": "every node's owner token resolves to this heap's",
+    }
+    COST_UNIT: ClassVar[str] = "links + nodes cut + 1"
+    POTENTIAL: ClassVar[str] = "sum over nodes of log2(binary-view subtree size)"
+
+    _root: _Node[K, V] | None
+
+    def __init__(self, pairs: Iterable[tuple[K, V]] = (), *, stable: bool = False) -> None:
+        self._setup(stable)
+        self._root = None
+        self._finish_init(pairs)
+
+    def push(self, key: K, value: V) -> _Node[K, V]:
+        """Insert an entry and return its handle.  O(1) worst-case.
+
+        >>> h = PairingHeap()
+        >>> h.push(3, 'c').key
+        3
+        """
+        if key != key:
+            raise nan_error("push", key)
+        w = self._wrap
+        k = key if w is None else w(key, None)
+        node = _Node(key, k, value, self._tok)
+        root = self._root
+        if root is None:
+            self._root = node
+        elif k < root._k:
+            node._child = root
+            root._prev = node
+            self._root = node
+        else:
+            _hang(root, node)
+        self._n += 1
+        self._ver += 1
+        return node
+
+    def peek(self) -> _Node[K, V]:
+        """The handle of a smallest entry.  O(1) worst-case.
+
+        >>> PairingHeap([(4, 'd'), (1, 'a')]).peek().value
+        'a'
+        """
+        root = self._root
+        if root is None:
+            raise empty_error("peek")
+        return root
+
+    def pop(self) -> tuple[K, V]:
+        """Remove and return a smallest ``(key, value)``.  O(log n) amortized.
+
+        >>> PairingHeap([(4, 'd'), (1, 'a')]).pop()
+        (1, 'a')
+        """
+        root = self._root
+        if root is None:
+            raise empty_error("pop")
+        self._root = _pair_children(root)
+        self._n -= 1
+        self._ver += 1
+        root._tok = None
+        return root._key, root.value
+
+    def decrease_key(self, handle: Handle[K, V], key: K) -> None:
+        """Give the entry a key that is not larger.  O(log n) amortized, O(1) actual.
+
+        >>> h = PairingHeap([(4, 'd'), (6, 'f')])
+        >>> x = h.push(8, 'h'); h.decrease_key(x, 2); h.peek() is x
+        True
+        """
+        x: Any = handle
+        if type(x) is not _Node or x._tok is not self._tok:
+            self._claim(x, "decrease_key")
+        if key != key:
+            raise nan_error("decrease_key", key)
+        w = self._wrap
+        k = key if w is None else w(key, x._k)
+        if x._k < k:
+            raise upward_error(x, key)
+        self._lower(x, key, k)
+
+    def change_key(self, handle: Handle[K, V], key: K) -> None:
+        """Give the entry any key.  O(log n) amortized.
+
+        >>> h = PairingHeap([(4, 'd')])
+        >>> x = h.push(1, 'a'); h.change_key(x, 9); h.pop()
+        (4, 'd')
+        """
+        x: Any = handle
+        if type(x) is not _Node or x._tok is not self._tok:
+            self._claim(x, "change_key")
+        if key != key:
+            raise nan_error("change_key", key)
+        w = self._wrap
+        k = key if w is None else w(key, x._k)
+        if x._k < k:
+            self._raise(x, key, k)
+        else:
+            self._lower(x, key, k)
+
+    # Precondition: x is live here and k is not above x's ordering object.
+    # Compares x with the root first, then cuts and links.
+    def _lower(self, x: Any, key: Any, k: Any) -> None:
+        root = self._root
+        if x is not root:
+            wins = k < root._k  # type: ignore[union-attr]
+            _cut(x)
+            if wins:
+                x._child, c = root, x._child
+                # x's old children stay: x keeps them and gains the old root.
+                root._prev = x  # type: ignore[union-attr]
+                root._next = c  # type: ignore[union-attr]
+                if c is not None:
+                    c._prev = root
+                self._root = x
+            else:
+                _hang(root, x)
+        x._key = key
+        x._k = k
+        self._ver += 1
+
+    # Precondition: x is live here and k is above x's ordering object.
+    # Pairs x's children first (safe to unwind), then compares, then moves.
+    def _raise(self, x: Any, key: Any, k: Any) -> None:
+        c = _pair_children(x)
+        root = self._root
+        if x is root:
+            if c is not None:
+                try:
+                    wins = c._k < k
+                except BaseException:
+                    _adopt(x, [c], None)
+                    raise
+                if wins:
+                    _hang(c, x)
+                    self._root = c
+                else:
+                    _hang(x, c)
+        else:
+            # root <= old key < new key and root <= c: both hang from the root.
+            _cut(x)
+            if c is not None:
+                _hang(root, c)
+            _hang(root, x)
+        x._key = key
+        x._k = k
+        self._ver += 1
+
+    def remove(self, handle: Handle[K, V]) -> tuple[K, V]:
+        """Delete the entry and return ``(key, value)``.  O(log n) amortized.
+
+        >>> h = PairingHeap([(1, 'a'), (2, 'b')])
+        >>> x = h.push(3, 'c'); h.remove(x), len(h)
+        ((3, 'c'), 2)
+        """
+        x: Any = handle
+        if type(x) is not _Node or x._tok is not self._tok:
+            self._claim(x, "remove")
+        if x is self._root:
+            return self.pop()
+        c = _pair_children(x)
+        _cut(x)
+        if c is not None:
+            _hang(self._root, c)
+        self._n -= 1
+        self._ver += 1
+        x._tok = None
+        return x._key, x.value
+
+    # --- SPI ---------------------------------------------------------------
+    def _meld_from(self, other: PairingHeap[K, V]) -> None:
+        a = self._root
+        b = other._root
+        self._root = b if a is None else _link(a, b)
+
+    def _reset(self) -> None:
+        self._root = None
+
+    def _kill(self, h: Any) -> None:
+        h._tok = h._child = h._next = h._prev = None
+
+    def _handles(self) -> Iterator[_Node[K, V]]:
+        stack = [] if self._root is None else [self._root]
+        while stack:
+            x = stack.pop()
+            yield x
+            if x._next is not None:
+                stack.append(x._next)
+            if x._child is not None:
+                stack.append(x._child)
+
+    def _export(self) -> tuple[list[Any], list[int]]:
+        out: list[Any] = []
+        counts: list[int] = []
+        stack = [] if self._root is None else [self._root]
+        while stack:
+            x = stack.pop()
+            out.append(x)
+            kids = []
+            c = x._child
+            while c is not None:
+                kids.append(c)
+                c = c._next
+            counts.append(len(kids))
+            kids.reverse()
+            stack.extend(kids)
+        return out, counts
+
+    def _import(self, handles: list[Any], counts: list[int]) -> None:
+        for x in handles:
+            x._child = x._next = x._prev = None
+        self._root = handles[0] if handles else None
+        # stack entries: [parent, children still to attach, last attached child]
+        stack: list[list[Any]] = []
+        for x, n in zip(handles, counts, strict=True):
+            if stack:
+                top = stack[-1]
+                last = top[2]
+                if last is None:
+                    top[0]._child = x
+                    x._prev = top[0]
+                else:
+                    last._next = x
+                    x._prev = last
+                top[2] = x
+                top[1] -= 1
+                if top[1] == 0:
+                    stack.pop()
+            if n:
+                stack.append([x, n, None])
+
+    def _map_order(self, fn: Callable[[Any, Any], Any]) -> None:
+        for x in self._handles():
+            x._k = fn(x._k, x._key)
+
+    def _survey(self, report: Any) -> dict[str, Any]:
+        root = self._root
+        seen: dict[int, tuple[Any, int]] = {}
+        if root is not None:
+            seen[id(root)] = (None, 0)
+            if root._prev is not None or root._next is not None:
+                report.fail("links", root, self._path(root, seen), "the root has a sibling link")
+        count = 0
+        height = 0
+        max_degree = 0
+        stack: list[tuple[Any, int]] = [] if root is None else [(root, 0)]
+        while stack:
+            x, depth = stack.pop()
+            count += 1
+            if count > self._n + 1:
+                report.fail("size", x, self._path(x, seen), f"more than {self._n} nodes reachable")
+                break
+            height = max(height, depth)
+            if x not in self:
+                report.fail("ownership", x, self._path(x, seen), "its owner token is not this heap's")
+            degree = 0
+            prev = x
+            c = x._child
+            while c is not None:
+                if id(c) in seen:
+                    report.fail("links", c, self._path(x, seen), "a node is reachable twice")
+                    break
+                seen[id(c)] = (x, degree)
+                if c._prev is not prev:
+                    report.fail("links", c, self._path(c, seen), "prev does not point back")
+                if c._k < x._k:
+                    report.fail(
+                        "heap-order", c, self._path(c, seen),
+                        f"key {c._key!r} is smaller than its parent's {x._key!r}",
+                    )
+                stack.append((c, depth + 1))
+                degree += 1
+                prev = c
+                c = c._next
+            max_degree = max(max_degree, degree)
+        if count != self._n:
+            report.fail("size", root, [], f"{count} nodes reachable but len is {self._n}")
+        return {
+            "size": count,
+            "roots": 0 if root is None else 1,
+            "height": height,
+            "max_degree": max_degree,
+            "marked": None,
+            "potential": self._potential(),
+        }
+
+    @staticmethod
+    def _path(x: Any, seen: dict[int, tuple[Any, int]]) -> list[str]:
+        steps: list[str] = []
+        while x is not None and len(steps) <= len(seen):
+            parent, index = seen.get(id(x), (None, 0))
+            steps.append("root" if parent is None else f"child {index}")
+            x = parent
+        steps.reverse()
+        return steps
+
+    def _potential(self) -> float:
+        """Sum of log2 binary-view subtree sizes, computed bottom-up.  O(n)."""
+        order: list[Any] = []
+        stack = [] if self._root is None else [self._root]
+        while stack:
+            x = stack.pop()
+            order.append(x)
+            if x._child is not None:
+                stack.append(x._child)
+            if x._next is not None:
+                stack.append(x._next)
+        size: dict[int, int] = {}
+        total = 0.0
+        for x in reversed(order):
+            s = 1 + size.get(id(x._child), 0) + size.get(id(x._next), 0)
+            size[id(x)] = s
+            total += math.log2(s)
+        return total

@@ -1,0 +1,28 @@
+"""What the suites share: the kinds under test and their key strategies."""
+
+from __future__ import annotations
+
+from typing import Any
+
+from hypothesis import strategies as st
+
+import heapkit
+
+#: Every kind, under both stable settings: (kind name, stable).
+VARIANTS = [(name, stable) for name in sorted(heapkit.KINDS) for stable in (False, True)]
+NAMES = sorted(heapkit.KINDS)
+
+#: Keys with many ties, both signs, ints mixed with extreme and signed-zero floats.
+KEYS = st.one_of(
+    st.integers(-4, 12),
+    st.sampled_from([-1e308, 1e308, 0.5, -0.0, 0.0, 2.5]),
+)
+
+
+def monotone(name: str) -> bool:
+    """Kinds that take only keys at or above the last popped (radix)."""
+    return name == "radix"
+
+
+def make(name: str, stable: bool = False, pairs: Any = ()) -> Any:
+    return heapkit.KINDS[name](pairs, stable=stable)
