@@ -11,6 +11,7 @@ from heapkit.errors import (
 )
 from heapkit.kinds import DEFAULT, KINDS, BinaryHeap, DaryHeap, PairingHeap, new
 from heapkit.protocol import Handle, Heap, Shape
+from heapkit.threads import Locked, locked
 
 __all__ = [
     "DEFAULT",
@@ -25,9 +26,11 @@ __all__ = [
     "InvalidHandleError",
     "InvariantError",
     "KeyOrderError",
+    "Locked",
     "PairingHeap",
     "Shape",
     "check",
+    "locked",
     "new",
 ]
 
