@@ -231,11 +231,13 @@ def replay(
     *,
     make: Callable[[str], Any] | None = None,
     each: Callable[[dict[str, Any]], None] | None = None,
+    ops: Iterable[tuple[int, dict[str, Any]]] | None = None,
 ) -> Replayed:
     """Run the trace at ``path`` on a fresh queue of ``kind``.  O(trace) operations.
 
     ``make(kind)`` builds each queue (default ``heapkit.new``); ``each(op)`` is
-    called after every operation (e.g. to check or time).
+    called after every operation (e.g. to check or time); ``ops`` are the
+    trace's operations already read with :func:`read` (to replay several times).
     """
     name = os.fspath(path)
     build = make or (lambda k: new(k))
@@ -253,7 +255,7 @@ def replay(
             raise TraceError(f"{name}:{lineno}: unknown entry id {n}")
         return handles[n]
 
-    for lineno, op in read(name):
+    for lineno, op in read(name) if ops is None else ops:
         what = op["op"]
         q = queue(op["q"])
         try:
