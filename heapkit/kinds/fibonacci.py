@@ -28,9 +28,8 @@ as a cut).  Potential ``Phi = trees + 2 * marked``, charged with ``c = 2``.
 
 The constant ``c = 2`` (not 1) is forced by this unit: consolidation pays one
 scan *and* one link per root it absorbs, and each absorbed tree frees only one
-unit of Phi.  ``D(n) <= log_phi n`` because a node whose children were linked in
-order has its i-th child of degree ``>= i - 2`` (Fredman-Tarjan 1987;
-CLRS lemma 19.4, recalled from memory).
+unit of Phi.  ``D(n) <= log_phi n``: the i-th child (in link order) of a node has
+degree ``>= i - 2`` (Fredman-Tarjan 1987; CLRS lemma 19.4, recalled from memory).
 
 Source: M. L. Fredman, R. E. Tarjan, "Fibonacci heaps and their uses in
 improved network optimization algorithms", J. ACM 34(3) (1987) 596-615
