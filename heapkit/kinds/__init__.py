@@ -6,14 +6,16 @@ from collections.abc import Mapping
 from types import MappingProxyType
 
 from heapkit.kinds.dary import BinaryHeap, DaryHeap
+from heapkit.kinds.fibonacci import FibonacciHeap
 from heapkit.kinds.pairing import PairingHeap
 
-__all__ = ["DEFAULT", "KINDS", "BinaryHeap", "DaryHeap", "PairingHeap", "new"]
+__all__ = ["DEFAULT", "KINDS", "BinaryHeap", "DaryHeap", "FibonacciHeap", "PairingHeap", "new"]
 
 KINDS: Mapping[str, type] = MappingProxyType(
     {
         BinaryHeap.KIND: BinaryHeap,
         DaryHeap.KIND: DaryHeap,
+        FibonacciHeap.KIND: FibonacciHeap,
         PairingHeap.KIND: PairingHeap,
     }
 )
