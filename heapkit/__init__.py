@@ -9,7 +9,7 @@ from heapkit.errors import (
     InvariantError,
     KeyOrderError,
 )
-from heapkit.kinds import DEFAULT, KINDS, BinaryHeap, DaryHeap, PairingHeap, new
+from heapkit.kinds import DEFAULT, KINDS, BinaryHeap, DaryHeap, FibonacciHeap, PairingHeap, new
 from heapkit.protocol import Handle, Heap, Shape
 from heapkit.threads import Locked, locked
 
@@ -20,6 +20,7 @@ __all__ = [
     "BoundExceededError",
     "DaryHeap",
     "EmptyHeapError",
+    "FibonacciHeap",
     "Handle",
     "Heap",
     "HeapError",
