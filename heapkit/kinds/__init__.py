@@ -6,14 +6,16 @@ from collections.abc import Mapping
 from types import MappingProxyType
 
 from heapkit.kinds.dary import BinaryHeap, DaryHeap
+from heapkit.kinds.lazy import LazyHeap
 from heapkit.kinds.pairing import PairingHeap
 
-__all__ = ["DEFAULT", "KINDS", "BinaryHeap", "DaryHeap", "PairingHeap", "new"]
+__all__ = ["DEFAULT", "KINDS", "BinaryHeap", "DaryHeap", "LazyHeap", "PairingHeap", "new"]
 
 KINDS: Mapping[str, type] = MappingProxyType(
     {
         BinaryHeap.KIND: BinaryHeap,
         DaryHeap.KIND: DaryHeap,
+        LazyHeap.KIND: LazyHeap,
         PairingHeap.KIND: PairingHeap,
     }
 )
