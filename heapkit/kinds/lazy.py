@@ -24,10 +24,10 @@ are copied to a new list and heapified (compaction); a failure leaves the old li
 
 Bounds
 ------
-push, decrease_key, change_key: O(log n) worst-case (one C ``heappush``; the
-list holds at most 2n + 1 entries), plus an O(n) compaction amortized to O(1).
-pop: O(log n) amortized (each skipped stale entry was paid for by the
-operation that made it stale).  remove: O(1) amortized.  peek: O(1) amortized.
+push: O(log n) worst-case (one C ``heappush``; the list holds at most 2n + 1
+entries).  decrease_key, change_key: O(log n) amortized (worst-case but for an
+occasional O(n) compaction).  pop: O(log n) amortized (each skipped stale entry
+was paid for by the operation that made it stale).  remove, peek: O(1) amortized.
 meld: O(m log(n + m)) by pushes or O(n + m) by heapify, whichever is smaller.
 
 Audit: cost unit = entries moved through the C heap (1 per push, 1 per popped
@@ -63,7 +63,6 @@ from heapkit._core import (
 )
 from heapkit.errors import InvalidHandleError
 from heapkit.kinds._lazy_entries import (
-    _GHOST,
     _RAW,
     _fresh,
     _Handle,
@@ -73,6 +72,8 @@ from heapkit.kinds._lazy_entries import (
     _unpop,
     _unpush,
     _user_key,
+    flatten,
+    rebuild,
 )
 from heapkit.protocol import Handle
 
@@ -156,12 +157,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
         if key != key:
             raise nan_error("push", key)
         w = self._wrap
-        if w is not None:
-            k = w(key, None)
-        elif type(key) in _RAW:
-            k = key
-        else:
-            k = _Ord(key)
+        k = key if w is None and type(key) in _RAW else _Ord(key) if w is None else w(key, None)
         h: _Handle[K, V] = _Handle()
         h.value = value
         h._e = e = (k, h, self._tok)
@@ -204,10 +200,9 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
         >>> LazyHeap([(4, 'd'), (1, 'a')]).pop()
         (1, 'a')
         """
-        # One test for both the empty heap and compaction (stale >= 0 == n).
+        if not self._n:
+            raise empty_error("pop")
         if self._stale >= self._n:
-            if not self._n:
-                raise empty_error("pop")
             self._compact()
         a = self._a
         while True:
@@ -229,7 +224,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
         return (k if type(k) in _RAW else _user_key(k)), h.value
 
     def decrease_key(self, handle: Handle[K, V], key: K) -> None:
-        """Give the entry a key that is not larger.  O(log n) worst-case, plus compaction.
+        """Give the entry a key that is not larger.  O(log n) amortized.
 
         >>> h = LazyHeap([(4, 'd'), (6, 'f')])
         >>> x = h.push(8, 'h'); h.decrease_key(x, 2); h.peek() is x
@@ -248,7 +243,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
         self._repush(x, k)
 
     def change_key(self, handle: Handle[K, V], key: K) -> None:
-        """Give the entry any key.  O(log n) worst-case, plus compaction.
+        """Give the entry any key.  O(log n) amortized.
 
         >>> h = LazyHeap([(4, 'd')])
         >>> x = h.push(1, 'a'); h.change_key(x, 9); h.pop()
@@ -371,41 +366,10 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
                 yield h
 
     def _export(self) -> tuple[list[Any], list[Any]]:
-        """Live handles in list order; layout: per list slot, None (live) or the stale ordering object."""
-        handles: list[Any] = []
-        layout: list[Any] = []
-        for e in self._a:
-            h = e[1]
-            if h._e is e:
-                handles.append(h)
-                layout.append(None)
-            else:
-                layout.append(e[0])
-        return handles, layout
+        return flatten(self._a)
 
     def _import(self, handles: list[Any], layout: list[Any]) -> None:
-        """Rebuild the exact list; handles hold their ordering object in ``_e``.  No comparison."""
-        tok = self._tok
-        wrap = self._wrap
-        a: list[Any] = []
-        it = iter(handles)
-        stale = 0
-        for o in layout:
-            if o is None:
-                h = next(it)
-                k = h._e
-                if wrap is None:
-                    k = _normal(k)
-                elif type(k) is not Stable:
-                    k = wrap(_user_key(k), None)
-                e = (k, h, tok)
-                h._e = e
-            else:
-                e = (o if wrap is not None else _normal(o), _GHOST, tok)
-                stale += 1
-            a.append(e)
-        self._a = a
-        self._stale = stale
+        self._a, self._stale = rebuild(handles, layout, self._tok, self._wrap)
 
     def __setstate__(self, state: tuple[list[Any], Any]) -> None:
         handles, layout = state
