@@ -389,3 +389,90 @@ def test_handles_are_not_ordered() -> None:
     a: _Handle[int, int] = LazyHeap().push(1, 1)
     b: _Handle[int, int] = LazyHeap().push(1, 1)
     assert not (a < b) and not (b < a)
+
+
+def test_stable_and_wrapped_keys_survive_copy_and_pickle() -> None:
+    for stable in (False, True):
+        h: LazyHeap[Any, int] = LazyHeap(stable=stable)
+        xs = [h.push(Fraction(k, 3), i) for i, k in enumerate((4, 1, 4, 2, 4, 1))]
+        h.change_key(xs[1], Fraction(4, 3))
+        h.remove(xs[3])
+        # Source: sorted() on (key, push order) gives the stable pop order.
+        expect = sorted(((x.key, i) for i, x in enumerate(xs) if x.alive), key=lambda p: p)
+        for twin in (copy.copy(h), copy.deepcopy(h), pickle.loads(pickle.dumps(h))):
+            heapkit.check(twin)
+            got = [twin.pop() for _ in range(len(twin))]
+            if stable:
+                assert got == expect
+            else:
+                assert sorted(got) == expect
+
+
+def test_audit_hooks_keep_the_documented_amortized_bounds() -> None:
+    # amortized = actual + PHI_C * (phi after - phi before), as the auditor computes it.
+    rnd = random.Random(11)
+    h: LazyHeap[int, int] = LazyHeap()
+    xs: list[Any] = []
+    seen: set[str] = set()
+    for step in range(4000):
+        live = [x for x in xs if x.alive]
+        r = rnd.random()
+        if not live or r < 0.25:
+            op, target = "push", None
+        elif r < 0.45:
+            op, target = "decrease_key", rnd.choice(live)
+        elif r < 0.6:
+            op, target = "change_key", rnd.choice(live)
+        elif r < 0.75:
+            op, target = "remove", rnd.choice(live)
+        elif r < 0.97:
+            op, target = "pop", None
+        else:
+            op = "meld"
+            target = LazyHeap([(rnd.randrange(50), -1) for _ in range(rnd.choice((1, 40)))])
+        n = len(h) + (len(target) if op == "meld" else 0)
+        phi = h._phi()
+        probe = h._cost_probe(op, target)
+        if op == "push":
+            target = h.push(rnd.randrange(100), step)
+            xs.append(target)
+        elif op == "decrease_key":
+            h.decrease_key(target, target.key - rnd.randrange(5))
+        elif op == "change_key":
+            h.change_key(target, rnd.randrange(100))
+        elif op == "remove":
+            h.remove(target)
+        elif op == "pop":
+            h.pop()
+        else:
+            xs.extend(target)
+            h.meld(target)
+        actual = h._cost(op, probe, None if op == "pop" else target)
+        assert actual >= 0
+        assert actual + h.PHI_C * (h._phi() - phi) <= h._bound(op, n), (op, step)
+        seen.add(op)
+    assert len(seen) == 6
+
+
+def test_local_survey_passes_after_operations_and_sees_a_bad_root() -> None:
+    from heapkit.contracts import Report
+
+    h: LazyHeap[int, str] = LazyHeap([(k, str(k)) for k in (4, 2, 6, 1)])
+    x = h.push(0, "0")
+    report = Report()
+    h._survey_local(report, h._touched("push", None), x)
+    assert report.problems == []
+    h._a[0], h._a[1] = h._a[1], h._a[0]
+    h._survey_local(report, None, x)
+    assert report.rules == ["heap-order"]
+
+
+def test_map_order_rebuilds_entries_without_comparing() -> None:
+    h: LazyHeap[Any, int] = LazyHeap([(Bomb(v), v) for v in (3, 1, 2)])
+    x = h.peek()
+    h.decrease_key(x, Bomb(0))
+    Fuse.count = 0
+    h._map_order(lambda o, key: o)
+    assert Fuse.count == 0
+    heapkit.check(h)
+    assert [h.pop()[1] for _ in range(3)] == [1, 2, 3]

@@ -187,15 +187,17 @@ def rebuild(handles: list[Any], layout: list[Any], tok: Any, wrap: Any) -> tuple
     for o in layout:
         if o is None:
             h = next(it)
-            k = h._e
-            if wrap is None:
-                k = _normal(k)
-            elif type(k) is not Stable:
-                k = wrap(_user_key(k), None)
-            e = (k, h, tok)
+            e = (_remade(h._e, wrap), h, tok)
             h._e = e
         else:
-            e = (o if wrap is not None else _normal(o), _GHOST, tok)
+            e = (_remade(o, wrap), _GHOST, tok)
             stale += 1
         a.append(e)
     return a, stale
+
+
+def _remade(k: Any, wrap: Any) -> Any:
+    """Ordering object ``k`` remade for a fresh heap (other layers dropped, push order kept)."""
+    if wrap is None:
+        return k if type(k) in _RAW or type(k) is _Ord else _order(_user_key(k))
+    return k if type(k) is Stable else wrap(_user_key(k), k)
