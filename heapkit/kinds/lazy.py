@@ -332,7 +332,9 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
         tok = self._tok
         fresh = [(e[0], e[1], tok) for e in other._a if e[1]._e is e]
         a = self._a
-        if self._pushes_win(len(fresh)):
+        if not a and not other._stale:
+            self._a = fresh  # other's list order: already a heap (extend into an empty heap)
+        elif self._pushes_win(len(fresh)):
             done = 0
             try:
                 for e in fresh:
