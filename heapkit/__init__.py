@@ -9,7 +9,7 @@ from heapkit.errors import (
     InvariantError,
     KeyOrderError,
 )
-from heapkit.kinds import DEFAULT, KINDS, BinaryHeap, DaryHeap, FibonacciHeap, PairingHeap, new
+from heapkit.kinds import DEFAULT, KINDS, BinaryHeap, DaryHeap, FibonacciHeap, LazyHeap, PairingHeap, new
 from heapkit.protocol import Handle, Heap, Shape
 from heapkit.threads import Locked, locked
 
@@ -27,6 +27,7 @@ __all__ = [
     "InvalidHandleError",
     "InvariantError",
     "KeyOrderError",
+    "LazyHeap",
     "Locked",
     "PairingHeap",
     "Shape",

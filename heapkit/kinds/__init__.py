@@ -7,21 +7,20 @@ from types import MappingProxyType
 
 from heapkit.kinds.dary import BinaryHeap, DaryHeap
 from heapkit.kinds.fibonacci import FibonacciHeap
+from heapkit.kinds.lazy import LazyHeap
 from heapkit.kinds.pairing import PairingHeap
 
-__all__ = ["DEFAULT", "KINDS", "BinaryHeap", "DaryHeap", "FibonacciHeap", "PairingHeap", "new"]
+__all__ = ["DEFAULT", "KINDS", "BinaryHeap", "DaryHeap", "FibonacciHeap", "LazyHeap", "PairingHeap", "new"]
 
 KINDS: Mapping[str, type] = MappingProxyType(
     {
-        BinaryHeap.KIND: BinaryHeap,
-        DaryHeap.KIND: DaryHeap,
-        FibonacciHeap.KIND: FibonacciHeap,
-        PairingHeap.KIND: PairingHeap,
+        cls.KIND: cls
+        for cls in (BinaryHeap, DaryHeap, FibonacciHeap, LazyHeap, PairingHeap)
     }
 )
 
 #: The kind the benchmark shows fastest on the decrease-key workloads.
-DEFAULT: str = "pairing"
+DEFAULT: str = "lazy"
 
 
 def new(name: str | None = None, /, **options: object) -> object:
