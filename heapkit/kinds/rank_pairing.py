@@ -1,0 +1,619 @@
+"""Rank-pairing heap (type-2 ranks): a list of half-ordered half-trees, one-pass linking.
+
+Invariants (binary view: ``_left``, ``_right``; a missing child has rank -1)
+---------------------------------------------------------------------------
+* half-order: ``not (y.k < x.k)`` for every node ``x`` and every ``y`` in ``x``'s
+  left subtree (equivalently: every node is no smaller than its nearest ancestor
+  reached by a left edge);
+* half-tree: every root has ``_right is None`` (a root has only a left subtree);
+* rank, at a root: ``r(x) = r(x.left) + 1``;
+* rank, type-2, at a non-root ``x`` with child ranks ``a, b``:
+  ``r(x) = max(a, b) + 1`` if ``|a - b| <= 1`` else ``r(x) = max(a, b)``; that is,
+  the rank differences ``(r - a, r - b)`` are ``(1, 1)``, ``(1, 2)``, ``(2, 1)``,
+  ``(0, i)`` or ``(i, 0)`` with ``i >= 2`` (a 1,1-, 1,2- or 0,i-node);
+* links: ``x.left.up is x``, ``x.right.up is x``; roots have ``up is None`` and
+  form a circular list (``x.next.prev is x``); the first root is a minimum;
+* size and ownership: the nodes reachable from the roots number ``len(heap)``,
+  none twice, each owned by this heap; the counters below match the structure.
+
+Bounds (amortized, potential below)
+-----------------------------------
+push, meld, decrease_key: O(1); pop, remove, change_key: O(log n); peek O(1)
+worst-case.  A half-tree of rank ``r`` holds at least ``F(r+2) >= phi**r`` nodes
+(minimum reached by 1,2-nodes: ``N(r) = 1 + N(r-1) + N(r-2)``), so every rank is at
+most ``log_phi n``.
+
+Cost unit: links + cuts + ranks written + roots scanned + 1.  Potential (c folded
+in, ``PHI_C = 1``): ``Phi = 7 * sum over non-roots of (r - a) + (r - b)``
+``+ 6 * #0,i-nodes + 18 * #roots``, kept in O(1) counters as
+``7 * (rank sum) + 7 * n + 11 * #roots + 6 * #0,i-nodes`` (the rank differences
+telescope).  Derivation: a link adds a 1,1-node (+14) and drops a root (-18) and
+pays 4 (link, rank, 2 scans); a spine node with its 0-child on the right pays its
+cut, scan and rank (2) from ``-7(i-1) - 6 + 11``, other spine nodes (at most
+``r(min)``) cost 14, so pop <= ``8 log_phi n - 16``; a decrease-key walk of ``j``
+rank drops costs ``j + 4`` and ``Phi`` changes by at most ``11 + 7(1-j) + 6(j+1)``,
+so 28; push 1 + 18 = 19; remove <= ``7 log_phi n + 16``; change_key up adds a root.
+
+Source: B. Haeupler, S. Sen, R. E. Tarjan, "Rank-pairing heaps", SIAM J. Comput.
+40(6) (2011) 1463-1485; ESA 2009.  The type-2 rule above is recalled from memory
+(1,1-, 1,2- or 0,i-nodes with i > 1, roots one above their left child) and is the
+rule implemented; the paper's own potential is recalled imperfectly, so the
+weights above are this module's own derivation in the paper's style.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Callable, Iterable, Iterator
+from typing import Any, ClassVar, Generic, TypeVar
+
+from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, upward_error
+from heapkit.kinds._rank_pairing_rules import export_trees, import_trees, survey, survey_local
+from heapkit.protocol import Handle
+
+__all__ = ["RankPairingHeap"]
+
+K = TypeVar("K")
+V = TypeVar("V")
+
+_LOG_PHI = math.log((1 + math.sqrt(5)) / 2)
+
+
+class _Node(HandleBase[K, V]):
+    """Handle and node: ``_left``, ``_right``, ``_up`` (parent; None at a root),
+    ``_next``/``_prev`` (root list; None below the roots), ``_rank``."""
+
+    __slots__ = ("_left", "_next", "_prev", "_rank", "_right", "_up")
+
+    def __init__(self, key: K, k: Any, value: V, tok: Any) -> None:
+        self._key = key
+        self._k = k
+        self.value = value
+        self._tok = tok
+        self._left: Any = None
+        self._right: Any = None
+        self._up: Any = None
+        self._next: Any = None
+        self._prev: Any = None
+        self._rank = 0
+
+
+# Precondition: first is a root of a circular list and x a detached root.
+# Restores: x sits just before first (at the end of the list).  No comparison.
+def _enlist(first: Any, x: Any) -> None:
+    last = first._prev
+    last._next = x
+    x._prev = last
+    x._next = first
+    first._prev = x
+
+
+# Precondition: trees are detached half-trees.  Restores: a circular list in
+# that order; returns its first node.
+def _ring(trees: list[Any]) -> Any:
+    prev = trees[-1]
+    for t in trees:
+        t._prev = prev
+        prev._next = t
+        prev = t
+    return trees[0]
+
+
+class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
+    """Rank-pairing heap (type-2 ranks) with handles.
+
+    >>> h = RankPairingHeap([(5, 'e'), (2, 'b')])
+    >>> x = h.push(9, 'i')
+    >>> h.decrease_key(x, 1)
+    >>> h.pop(), h.pop(), len(h)
+    ((1, 'i'), (2, 'b'), 1)
+    """
+
+    __slots__ = ("_bins", "_first", "_rs", "_rt", "_work", "_zs")
+
+    KIND: ClassVar[str] = "rank-pairing"
+    RULES: ClassVar[dict[str, str]] = {
+        "half-order": "no node is smaller than the node whose left subtree holds it",
+        "half-tree": "roots have no right child",
+        "rank": "roots are one above their left child; other nodes follow the type-2 rule",
+        "links": "up/left/right and root-list links agree; no node twice",
+        "min-first": "the first root is not larger than any root",
+        "size": "the nodes reachable from the roots number len(heap)",
+        "ownership": "every node's owner token resolves to this heap's",
+        "tally": "the rank-sum, root and 0,i-node counters match the structure",
+    }
+    COST_UNIT: ClassVar[str] = "links + cuts + ranks written + roots scanned + 1"
+    POTENTIAL: ClassVar[str] = "7*sum of non-root rank differences + 6*#0,i-nodes + 18*#roots"
+    PHI_C: ClassVar[float] = 1.0
+
+    _first: _Node[K, V] | None
+    _bins: list[Any]
+    _rs: int
+    _rt: int
+    _zs: int
+    _work: int
+
+    def __init__(self, pairs: Iterable[tuple[K, V]] = (), *, stable: bool = False) -> None:
+        self._setup(stable)
+        self._bins = [None] * 8
+        self._reset()
+        self._work = 0
+        self._finish_init(pairs)
+
+    def push(self, key: K, value: V) -> _Node[K, V]:
+        """Insert an entry and return its handle.  O(1) worst-case.
+
+        >>> h = RankPairingHeap()
+        >>> h.push(3, 'c').key
+        3
+        """
+        if key != key:
+            raise nan_error("push", key)
+        w = self._wrap
+        k = key if w is None else w(key, None)
+        node = _Node(key, k, value, self._tok)
+        first = self._first
+        if first is None:
+            node._next = node._prev = node
+            self._first = node
+        else:
+            wins = k < first._k
+            _enlist(first, node)
+            if wins:
+                self._first = node
+        self._n += 1
+        self._rt += 1
+        self._ver += 1
+        return node
+
+    def peek(self) -> _Node[K, V]:
+        """The handle of a smallest entry.  O(1) worst-case.
+
+        >>> RankPairingHeap([(4, 'd'), (1, 'a')]).peek().value
+        'a'
+        """
+        first = self._first
+        if first is None:
+            raise empty_error("peek")
+        return first
+
+    def pop(self) -> tuple[K, V]:
+        """Remove and return a smallest ``(key, value)``.  O(log n) amortized.
+
+        >>> RankPairingHeap([(4, 'd'), (1, 'a')]).pop()
+        (1, 'a')
+        """
+        m = self._first
+        if m is None:
+            raise empty_error("pop")
+        self._consolidate(m)
+        self._n -= 1
+        self._ver += 1
+        m._tok = m._next = m._prev = None
+        return m._key, m.value
+
+    # Precondition: m is the first root.  Restores: m is out of the structure
+    # (detached, rank 0) and the rest is one-pass linked, the least root first.
+    # If a comparison raises, every half-tree goes back into the root list
+    # behind m (no larger than any of them, now rank 0) before it propagates.
+    def _consolidate(self, m: Any) -> None:
+        trees: list[Any] = []
+        append = trees.append
+        x = m._next
+        while x is not m:
+            append(x)
+            x = x._next
+        rs = self._rs - m._rank
+        zs = self._zs
+        x = m._left
+        m._left = None
+        m._rank = 0
+        spine = 0
+        while x is not None:  # the spine of m's left child becomes half-trees
+            y = x._right
+            left = x._left
+            a = -1 if left is None else left._rank
+            b = -1 if y is None else y._rank
+            if a - b > 1 or b - a > 1:
+                zs -= 1
+            rs += a + 1 - x._rank
+            x._rank = a + 1
+            x._right = x._up = None
+            append(x)
+            spine += 1
+            x = y
+        self._zs = zs
+        bins = self._bins
+        out: list[Any] = []
+        top = -1
+        links = 0
+        i = 0
+        try:
+            ntrees = len(trees)
+            while i < ntrees:  # trees[i:] are not placed yet
+                t = trees[i]
+                r = t._rank
+                if r >= len(bins):
+                    bins.extend([None] * (r + 1 - len(bins)))
+                u = bins[r]
+                if u is None:
+                    bins[r] = t
+                    if r > top:
+                        top = r
+                    i += 1
+                    continue
+                if t._k < u._k:
+                    u, t = t, u
+                bins[r] = None
+                c = u._left  # link: t becomes u's left child, c t's right
+                t._right = c
+                if c is not None:
+                    c._up = t
+                t._up = u
+                u._left = t
+                u._rank = r + 1
+                links += 1
+                out.append(u)
+                i += 1
+            i = len(trees)
+            for r in range(top + 1):
+                u = bins[r]
+                if u is not None:
+                    out.append(u)
+                    bins[r] = None
+            top = -1
+            best = out[0] if out else None
+            for u in out:
+                if u._k < best._k:  # type: ignore[union-attr]
+                    best = u
+        except BaseException:
+            for r in range(top + 1):
+                if bins[r] is not None:
+                    out.append(bins[r])
+                    bins[r] = None
+            out.extend(trees[i:])
+            self._rs = rs + links
+            self._rt = 1 + len(out)
+            self._first = _ring([m, *out])
+            self._work += 2 * links + 2 * spine + len(trees)
+            self._ver += 1
+            raise
+        self._rs = rs + links
+        self._rt = len(out)
+        self._work += 2 * links + 2 * spine + len(trees)
+        if best is None:
+            self._first = None
+        else:
+            _ring(out)
+            self._first = best
+
+    def decrease_key(self, handle: Handle[K, V], key: K) -> None:
+        """Give the entry a key that is not larger.  O(1) amortized.
+
+        >>> h = RankPairingHeap([(4, 'd'), (6, 'f')])
+        >>> x = h.push(8, 'h'); h.decrease_key(x, 2); h.peek() is x
+        True
+        """
+        x: Any = handle
+        if type(x) is not _Node or x._tok is not self._tok:
+            self._claim(x, "decrease_key")
+        if key != key:
+            raise nan_error("decrease_key", key)
+        w = self._wrap
+        k = key if w is None else w(key, x._k)
+        if x._k < k:
+            raise upward_error(x, key)
+        self._lower(x, key, k)
+
+    def change_key(self, handle: Handle[K, V], key: K) -> None:
+        """Give the entry any key.  O(1) amortized down, O(log n) amortized up.
+
+        >>> h = RankPairingHeap([(4, 'd')])
+        >>> x = h.push(1, 'a'); h.change_key(x, 9); h.pop()
+        (4, 'd')
+        """
+        x: Any = handle
+        if type(x) is not _Node or x._tok is not self._tok:
+            self._claim(x, "change_key")
+        if key != key:
+            raise nan_error("change_key", key)
+        w = self._wrap
+        k = key if w is None else w(key, x._k)
+        if x._k < k:
+            self._raise(x, key, k)
+        else:
+            self._lower(x, key, k)
+
+    # Precondition: x is live here and k is not above its ordering object.
+    # Compares k with the first root only, then cuts x (one cut) and re-ranks.
+    def _lower(self, x: Any, key: Any, k: Any) -> None:
+        first = self._first
+        if x is not first:
+            wins = k < first._k  # type: ignore[union-attr]
+            if x._up is not None:
+                self._cut(x)
+                left = x._left
+                r = 0 if left is None else left._rank + 1
+                self._rs += r - x._rank
+                x._rank = r
+                _enlist(first, x)
+                self._rt += 1
+                self._work += 1  # x's rank
+            if wins:
+                self._first = x
+        x._key = key
+        x._k = k
+        self._ver += 1
+
+    # Precondition: x is live here and k is above its ordering object.  x leaves
+    # its place (its left spine becomes roots) and comes back as a one-node root.
+    def _raise(self, x: Any, key: Any, k: Any) -> None:
+        first = self._first
+        if x is first:
+            self._consolidate(x)
+            nxt = self._first
+            if nxt is None:
+                x._next = x._prev = x  # type: ignore[union-attr]
+                self._first = x
+            else:
+                try:
+                    wins = k < nxt._k
+                except BaseException:
+                    _enlist(nxt, x)
+                    self._first = x
+                    self._rt += 1
+                    raise
+                _enlist(nxt, x)
+                if wins:
+                    self._first = x
+            self._rt += 1
+        else:
+            if x._up is not None:
+                self._cut(x)
+                _enlist(first, x)
+                self._rt += 1
+            self._spill(x)
+            self._rs -= x._rank
+            x._rank = 0
+        self._work += 1
+        x._key = key
+        x._k = k
+        self._ver += 1
+
+    def remove(self, handle: Handle[K, V]) -> tuple[K, V]:
+        """Delete the entry and return ``(key, value)``.  O(log n) amortized.
+
+        >>> h = RankPairingHeap([(1, 'a'), (2, 'b')])
+        >>> x = h.push(3, 'c'); h.remove(x), len(h)
+        ((3, 'c'), 2)
+        """
+        x: Any = handle
+        if type(x) is not _Node or x._tok is not self._tok:
+            self._claim(x, "remove")
+        if x is self._first:
+            return self.pop()
+        if x._up is None:
+            x._prev._next = x._next
+            x._next._prev = x._prev
+            self._rt -= 1
+        else:
+            self._cut(x)
+        self._spill(x)
+        self._rs -= x._rank
+        self._n -= 1
+        self._ver += 1
+        x._tok = x._next = x._prev = None
+        return x._key, x.value
+
+    # Precondition: x is a non-root node.  Restores: x is detached with its left
+    # subtree, its right child takes its place, and ranks are reduced up the path
+    # (type-2 rule; a root is one above its left child).  No comparison.  The
+    # counters drop x's 0,i status; x's own rank is the caller's to set.
+    def _cut(self, x: Any) -> None:
+        p = x._up
+        y = x._right
+        left = x._left
+        a = -1 if left is None else left._rank
+        b = -1 if y is None else y._rank
+        zs = self._zs
+        if a - b > 1 or b - a > 1:
+            zs -= 1
+        if p._left is x:
+            p._left = y
+        else:
+            p._right = y
+        if y is not None:
+            y._up = p
+        x._right = x._up = None
+        old = x._rank  # the rank of the child of u that just changed
+        u = p
+        rs = self._rs
+        work = 1
+        while True:
+            ur = u._rank
+            left = u._left
+            a = -1 if left is None else left._rank
+            if u._up is None:
+                if a + 1 != ur:
+                    rs += a + 1 - ur
+                    u._rank = a + 1
+                    work += 1
+                break
+            right = u._right
+            b = -1 if right is None else right._rank
+            if a - b > 1:
+                r, zero = a, True
+            elif b - a > 1:
+                r, zero = b, True
+            else:
+                r, zero = (a if a > b else b) + 1, False
+            was = old == ur or a == ur or b == ur
+            zs += zero - was
+            if r >= ur:
+                break
+            rs += r - ur
+            u._rank = r
+            work += 1
+            old = ur
+            u = u._up
+        self._rs = rs
+        self._zs = zs
+        self._work += work
+
+    # Precondition: x is detached (a root or about to leave).  Restores: the right
+    # spine of x's left child are roots (behind the first root), x has no left.
+    def _spill(self, x: Any) -> None:
+        first = self._first
+        y = x._left
+        x._left = None
+        rs = self._rs
+        zs = self._zs
+        count = 0
+        while y is not None:
+            nxt = y._right
+            left = y._left
+            a = -1 if left is None else left._rank
+            b = -1 if nxt is None else nxt._rank
+            if a - b > 1 or b - a > 1:
+                zs -= 1
+            rs += a + 1 - y._rank
+            y._rank = a + 1
+            y._right = y._up = None
+            _enlist(first, y)
+            count += 1
+            y = nxt
+        self._rs = rs
+        self._zs = zs
+        self._rt += count
+        self._work += 2 * count
+
+    # --- SPI ---------------------------------------------------------------
+    def _meld_from(self, other: RankPairingHeap[K, V]) -> None:
+        a = self._first
+        b = other._first
+        if a is None:
+            self._first = b
+        elif b is not None:
+            wins = b._k < a._k
+            a_last = a._prev
+            b_last = b._prev
+            a_last._next = b
+            b._prev = a_last
+            b_last._next = a
+            a._prev = b_last
+            if wins:
+                self._first = b
+        self._rs += other._rs
+        self._rt += other._rt
+        self._zs += other._zs
+
+    def _reset(self) -> None:
+        self._first = None
+        self._rs = 0  # sum of all ranks
+        self._rt = 0  # number of roots
+        self._zs = 0  # number of non-root 0,i-nodes
+
+    def _kill(self, h: Any) -> None:
+        h._tok = h._left = h._right = h._up = h._next = h._prev = None
+
+    def _roots(self) -> Iterator[_Node[K, V]]:
+        first = self._first
+        if first is None:
+            return
+        x = first
+        count = 0
+        while True:
+            yield x
+            count += 1
+            x = x._next
+            if x is first or x is None or count > self._n:
+                return
+
+    def _handles(self) -> Iterator[_Node[K, V]]:
+        for root in self._roots():
+            stack = [root]
+            while stack:
+                x = stack.pop()
+                yield x
+                if x._right is not None:
+                    stack.append(x._right)
+                if x._left is not None:
+                    stack.append(x._left)
+
+    def _export(self) -> tuple[list[Any], Any]:
+        return export_trees(list(self._roots()))
+
+    def _import(self, handles: list[Any], layout: Any) -> None:
+        self._reset()
+        roots = import_trees(handles, layout)
+        self._first = _ring(roots) if roots else None
+        self._rs, self._rt, self._zs = _tally(roots)
+
+    def _map_order(self, fn: Callable[[Any, Any], Any]) -> None:
+        for x in self._handles():
+            x._k = fn(x._k, x._key)
+
+    def _survey(self, report: Any) -> dict[str, Any]:
+        figures = survey(self, report)
+        rs, rt, zs = _tally(list(self._roots()))
+        if (rs, rt, zs) != (self._rs, self._rt, self._zs):
+            report.fail(
+                "tally", None, [],
+                f"counters (ranks {self._rs}, roots {self._rt}, 0,i-nodes {self._zs}) "
+                f"but the structure has ({rs}, {rt}, {zs})",
+            )
+        figures["potential"] = self._phi()
+        return figures
+
+    def _touched(self, op: str, handle: Any) -> tuple[Any, ...]:
+        x = handle if isinstance(handle, _Node) else None
+        if x is None:
+            return (self._first,)
+        return (x, x._up, x._left, x._right, self._first)
+
+    def _survey_local(self, report: Any, touched: Any, handle: Any) -> None:
+        survey_local(self, report, touched)
+
+    # --- audit -------------------------------------------------------------
+    def _phi(self) -> float:
+        """The potential (see the module docstring).  O(1)."""
+        return float(7 * self._rs + 7 * self._n + 11 * self._rt + 6 * self._zs)
+
+    def _cost_probe(self, op: str, handle: Any) -> int:
+        return self._work
+
+    def _cost(self, op: str, probe: Any, handle: Any) -> int:
+        return int(self._work - probe + 1)
+
+    @classmethod
+    def _bound(cls, op: str, n: int) -> float:
+        lg = math.log(n) / _LOG_PHI if n > 1 else 0.0
+        return {
+            "push": 19.0,
+            "meld": 1.0,
+            "decrease_key": 28.0,
+            "pop": 8 * lg,
+            "remove": 8 * lg + 16,
+            "change_key": 8 * lg + 35,
+        }.get(op, 8 * lg + 35)
+
+
+def _tally(roots: list[Any]) -> tuple[int, int, int]:
+    """(rank sum, roots, non-root 0,i-nodes) from scratch, iteratively.  O(n)."""
+    rs = zs = 0
+    for root in roots:
+        rs += root._rank
+        stack = [] if root._left is None else [root._left]
+        while stack:
+            x = stack.pop()
+            rs += x._rank
+            left, right = x._left, x._right
+            a = -1 if left is None else left._rank
+            b = -1 if right is None else right._rank
+            if a - b > 1 or b - a > 1:
+                zs += 1
+            if left is not None:
+                stack.append(left)
+            if right is not None:
+                stack.append(right)
+    return rs, len(roots), zs
