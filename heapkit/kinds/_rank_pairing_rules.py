@@ -149,7 +149,7 @@ def survey_local(heap: Any, report: Any, touched: Any) -> None:
         report.fail("size", None, [], f"first root {first!r} but len is {n}")
     if first is not None and first._up is not None:
         report.fail("links", first, _up_path(first, n), "the first root has a parent link")
-    for x in touched:
+    for x in (*touched, first):
         if x is None or x._tok is None or x not in heap:
             continue
         _survey_node(report, x, first, n)

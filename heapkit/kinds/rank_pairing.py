@@ -224,23 +224,21 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
             x = y
         self._zs = zs
         bins = self._bins
+        need = (self._n.bit_length() * 3 >> 1) + 3  # > log_phi n + 2 >= every rank + 1
+        if len(bins) < need:
+            bins.extend([None] * (need - len(bins)))
         out: list[Any] = []
+        put = out.append
         top = -1
         links = 0
-        i = 0
         try:
-            ntrees = len(trees)
-            while i < ntrees:  # trees[i:] are not placed yet
-                t = trees[i]
+            for t in trees:
                 r = t._rank
-                if r >= len(bins):
-                    bins.extend([None] * (r + 1 - len(bins)))
                 u = bins[r]
                 if u is None:
                     bins[r] = t
                     if r > top:
                         top = r
-                    i += 1
                     continue
                 if t._k < u._k:
                     u, t = t, u
@@ -253,39 +251,50 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
                 u._left = t
                 u._rank = r + 1
                 links += 1
-                out.append(u)
-                i += 1
-            i = len(trees)
+                put(u)
             for r in range(top + 1):
                 u = bins[r]
                 if u is not None:
-                    out.append(u)
+                    put(u)
                     bins[r] = None
             top = -1
-            best = out[0] if out else None
-            for u in out:
-                if u._k < best._k:  # type: ignore[union-attr]
-                    best = u
+            best = None
+            if out:
+                # ring the roots and find the least in one loop (saves ~5% of a pop)
+                it = iter(out)
+                best = prev = next(it)
+                last = out[-1]
+                best._prev = last
+                last._next = best
+                for u in it:
+                    u._prev = prev
+                    prev._next = u
+                    prev = u
+                    if u._k < best._k:
+                        best = u
         except BaseException:
-            for r in range(top + 1):
-                if bins[r] is not None:
-                    out.append(bins[r])
-                    bins[r] = None
-            out.extend(trees[i:])
-            self._rs = rs + links
-            self._rt = 1 + len(out)
-            self._first = _ring([m, *out])
+            self._unwind(m, trees, out, top, rs + links)
             self._work += 2 * links + 2 * spine + len(trees)
-            self._ver += 1
             raise
         self._rs = rs + links
         self._rt = len(out)
         self._work += 2 * links + 2 * spine + len(trees)
-        if best is None:
-            self._first = None
-        else:
-            _ring(out)
-            self._first = best
+        self._first = best
+
+    # Precondition: a comparison in _consolidate raised.  Restores: m first (rank
+    # 0, no children), then every half-tree that is not under another, as roots.
+    def _unwind(self, m: Any, trees: list[Any], out: list[Any], top: int, rs: int) -> None:
+        bins = self._bins
+        for r in range(top + 1):
+            if bins[r] is not None:
+                out.append(bins[r])
+                bins[r] = None
+        placed = {id(u) for u in out}
+        out.extend(t for t in trees if t._up is None and id(t) not in placed)
+        self._rs = rs
+        self._rt = 1 + len(out)
+        self._first = _ring([m, *out])
+        self._ver += 1
 
     def decrease_key(self, handle: Handle[K, V], key: K) -> None:
         """Give the entry a key that is not larger.  O(1) amortized.
