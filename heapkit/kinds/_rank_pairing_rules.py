@@ -7,9 +7,12 @@ docstring and ``RankPairingHeap.RULES``.
 
 from __future__ import annotations
 
+from collections.abc import Iterator
 from typing import Any
 
-__all__ = ["export_trees", "import_trees", "survey", "survey_local", "type2_rank"]
+__all__ = [
+    "export_trees", "import_trees", "nodes_of", "roots_of", "survey", "survey_local", "tally", "type2_rank",
+]
 
 
 def type2_rank(a: int, b: int) -> int:
@@ -46,7 +49,7 @@ def _rank_error(x: Any, root: bool) -> str | None:
 
 
 def survey(heap: Any, report: Any) -> dict[str, Any]:
-    """Check every rule but ``tally`` in O(n); return the figures of a Shape."""
+    """Check every rule in O(n); return the figures of a Shape (but the potential)."""
     n = heap._n
     first = heap._first
     seen: dict[int, tuple[Any, str]] = {}
@@ -120,6 +123,13 @@ def survey(heap: Any, report: Any) -> dict[str, Any]:
                 stack.append((c._left, c, c, "left", depth + 1))
     if count != n:
         report.fail("size", None, [], f"{count} nodes reachable but len is {n}")
+    counted = tally(roots)
+    if counted != (heap._rs, heap._rt, heap._zs):
+        report.fail(
+            "tally", None, [],
+            f"counters (rank sum, roots, 0,i-nodes) are {(heap._rs, heap._rt, heap._zs)} "
+            f"but the structure has {counted}",
+        )
     return {
         "size": count,
         "roots": len(roots),
@@ -222,3 +232,50 @@ def import_trees(handles: list[Any], codes: list[int]) -> list[Any]:
         if code & 2:
             slots.append((x, True))
     return roots
+
+
+def roots_of(heap: Any) -> list[Any]:
+    """The roots in list order, first root first (stops on a broken list)."""
+    first = heap._first
+    out: list[Any] = []
+    x = first
+    while x is not None and len(out) <= heap._n:
+        out.append(x)
+        x = x._next
+        if x is first:
+            break
+    return out
+
+
+def nodes_of(heap: Any) -> Iterator[Any]:
+    """Every node, root by root, each half-tree in preorder; iteratively."""
+    for root in roots_of(heap):
+        stack = [root]
+        while stack:
+            x = stack.pop()
+            yield x
+            if x._right is not None:
+                stack.append(x._right)
+            if x._left is not None:
+                stack.append(x._left)
+
+
+def tally(roots: list[Any]) -> tuple[int, int, int]:
+    """(rank sum, roots, non-root 0,i-nodes) from scratch, iteratively.  O(n)."""
+    rs = zs = 0
+    for root in roots:
+        rs += root._rank
+        stack = [] if root._left is None else [root._left]
+        while stack:
+            x = stack.pop()
+            rs += x._rank
+            left, right = x._left, x._right
+            a = -1 if left is None else left._rank
+            b = -1 if right is None else right._rank
+            if a - b > 1 or b - a > 1:
+                zs += 1
+            if left is not None:
+                stack.append(left)
+            if right is not None:
+                stack.append(right)
+    return rs, len(roots), zs

@@ -48,7 +48,16 @@ from collections.abc import Callable, Iterable, Iterator
 from typing import Any, ClassVar, Generic, TypeVar
 
 from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, upward_error
-from heapkit.kinds._rank_pairing_rules import export_trees, import_trees, survey, survey_local
+from heapkit.kinds._rank_pairing_cuts import cut, enlist, ring, spill, unspine
+from heapkit.kinds._rank_pairing_rules import (
+    export_trees,
+    import_trees,
+    nodes_of,
+    roots_of,
+    survey,
+    survey_local,
+    tally,
+)
 from heapkit.protocol import Handle
 
 __all__ = ["RankPairingHeap"]
@@ -76,27 +85,6 @@ class _Node(HandleBase[K, V]):
         self._next: Any = None
         self._prev: Any = None
         self._rank = 0
-
-
-# Precondition: first is a root of a circular list and x a detached root.
-# Restores: x sits just before first (at the end of the list).  No comparison.
-def _enlist(first: Any, x: Any) -> None:
-    last = first._prev
-    last._next = x
-    x._prev = last
-    x._next = first
-    first._prev = x
-
-
-# Precondition: trees are detached half-trees.  Restores: a circular list in
-# that order; returns its first node.
-def _ring(trees: list[Any]) -> Any:
-    prev = trees[-1]
-    for t in trees:
-        t._prev = prev
-        prev._next = t
-        prev = t
-    return trees[0]
 
 
 class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
@@ -158,7 +146,7 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
             self._first = node
         else:
             wins = k < first._k
-            _enlist(first, node)
+            enlist(first, node)
             if wins:
                 self._first = node
         self._n += 1
@@ -203,26 +191,12 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
         while x is not m:
             append(x)
             x = x._next
-        rs = self._rs - m._rank
-        zs = self._zs
         x = m._left
         m._left = None
+        spine, drs, dzs = unspine(x, append)  # m's left spine becomes half-trees
+        rs = self._rs - m._rank + drs
         m._rank = 0
-        spine = 0
-        while x is not None:  # the spine of m's left child becomes half-trees
-            y = x._right
-            left = x._left
-            a = -1 if left is None else left._rank
-            b = -1 if y is None else y._rank
-            if a - b > 1 or b - a > 1:
-                zs -= 1
-            rs += a + 1 - x._rank
-            x._rank = a + 1
-            x._right = x._up = None
-            append(x)
-            spine += 1
-            x = y
-        self._zs = zs
+        self._zs += dzs
         bins = self._bins
         need = (self._n.bit_length() * 3 >> 1) + 3  # > log_phi n + 2 >= every rank + 1
         if len(bins) < need:
@@ -293,7 +267,7 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
         out.extend(t for t in trees if t._up is None and id(t) not in placed)
         self._rs = rs
         self._rt = 1 + len(out)
-        self._first = _ring([m, *out])
+        self._first = ring([m, *out])
         self._ver += 1
 
     def decrease_key(self, handle: Handle[K, V], key: K) -> None:
@@ -340,12 +314,12 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
         if x is not first:
             wins = k < first._k  # type: ignore[union-attr]
             if x._up is not None:
-                self._cut(x)
+                cut(self, x)
                 left = x._left
                 r = 0 if left is None else left._rank + 1
                 self._rs += r - x._rank
                 x._rank = r
-                _enlist(first, x)
+                enlist(first, x)
                 self._rt += 1
                 self._work += 1  # x's rank
             if wins:
@@ -368,20 +342,20 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
                 try:
                     wins = k < nxt._k
                 except BaseException:
-                    _enlist(nxt, x)
+                    enlist(nxt, x)
                     self._first = x
                     self._rt += 1
                     raise
-                _enlist(nxt, x)
+                enlist(nxt, x)
                 if wins:
                     self._first = x
             self._rt += 1
         else:
             if x._up is not None:
-                self._cut(x)
-                _enlist(first, x)
+                cut(self, x)
+                enlist(first, x)
                 self._rt += 1
-            self._spill(x)
+            spill(self, x)
             self._rs -= x._rank
             x._rank = 0
         self._work += 1
@@ -406,95 +380,13 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
             x._next._prev = x._prev
             self._rt -= 1
         else:
-            self._cut(x)
-        self._spill(x)
+            cut(self, x)
+        spill(self, x)
         self._rs -= x._rank
         self._n -= 1
         self._ver += 1
         x._tok = x._next = x._prev = None
         return x._key, x.value
-
-    # Precondition: x is a non-root node.  Restores: x is detached with its left
-    # subtree, its right child takes its place, and ranks are reduced up the path
-    # (type-2 rule; a root is one above its left child).  No comparison.  The
-    # counters drop x's 0,i status; x's own rank is the caller's to set.
-    def _cut(self, x: Any) -> None:
-        p = x._up
-        y = x._right
-        left = x._left
-        a = -1 if left is None else left._rank
-        b = -1 if y is None else y._rank
-        zs = self._zs
-        if a - b > 1 or b - a > 1:
-            zs -= 1
-        if p._left is x:
-            p._left = y
-        else:
-            p._right = y
-        if y is not None:
-            y._up = p
-        x._right = x._up = None
-        old = x._rank  # the rank of the child of u that just changed
-        u = p
-        rs = self._rs
-        work = 1
-        while True:
-            ur = u._rank
-            left = u._left
-            a = -1 if left is None else left._rank
-            if u._up is None:
-                if a + 1 != ur:
-                    rs += a + 1 - ur
-                    u._rank = a + 1
-                    work += 1
-                break
-            right = u._right
-            b = -1 if right is None else right._rank
-            if a - b > 1:
-                r, zero = a, True
-            elif b - a > 1:
-                r, zero = b, True
-            else:
-                r, zero = (a if a > b else b) + 1, False
-            was = old == ur or a == ur or b == ur
-            zs += zero - was
-            if r >= ur:
-                break
-            rs += r - ur
-            u._rank = r
-            work += 1
-            old = ur
-            u = u._up
-        self._rs = rs
-        self._zs = zs
-        self._work += work
-
-    # Precondition: x is detached (a root or about to leave).  Restores: the right
-    # spine of x's left child are roots (behind the first root), x has no left.
-    def _spill(self, x: Any) -> None:
-        first = self._first
-        y = x._left
-        x._left = None
-        rs = self._rs
-        zs = self._zs
-        count = 0
-        while y is not None:
-            nxt = y._right
-            left = y._left
-            a = -1 if left is None else left._rank
-            b = -1 if nxt is None else nxt._rank
-            if a - b > 1 or b - a > 1:
-                zs -= 1
-            rs += a + 1 - y._rank
-            y._rank = a + 1
-            y._right = y._up = None
-            _enlist(first, y)
-            count += 1
-            y = nxt
-        self._rs = rs
-        self._zs = zs
-        self._rt += count
-        self._work += 2 * count
 
     # --- SPI ---------------------------------------------------------------
     def _meld_from(self, other: RankPairingHeap[K, V]) -> None:
@@ -525,38 +417,17 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
     def _kill(self, h: Any) -> None:
         h._tok = h._left = h._right = h._up = h._next = h._prev = None
 
-    def _roots(self) -> Iterator[_Node[K, V]]:
-        first = self._first
-        if first is None:
-            return
-        x = first
-        count = 0
-        while True:
-            yield x
-            count += 1
-            x = x._next
-            if x is first or x is None or count > self._n:
-                return
-
     def _handles(self) -> Iterator[_Node[K, V]]:
-        for root in self._roots():
-            stack = [root]
-            while stack:
-                x = stack.pop()
-                yield x
-                if x._right is not None:
-                    stack.append(x._right)
-                if x._left is not None:
-                    stack.append(x._left)
+        return nodes_of(self)
 
     def _export(self) -> tuple[list[Any], Any]:
-        return export_trees(list(self._roots()))
+        return export_trees(roots_of(self))
 
     def _import(self, handles: list[Any], layout: Any) -> None:
         self._reset()
         roots = import_trees(handles, layout)
-        self._first = _ring(roots) if roots else None
-        self._rs, self._rt, self._zs = _tally(roots)
+        self._first = ring(roots) if roots else None
+        self._rs, self._rt, self._zs = tally(roots)
 
     def _map_order(self, fn: Callable[[Any, Any], Any]) -> None:
         for x in self._handles():
@@ -564,13 +435,6 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
 
     def _survey(self, report: Any) -> dict[str, Any]:
         figures = survey(self, report)
-        rs, rt, zs = _tally(list(self._roots()))
-        if (rs, rt, zs) != (self._rs, self._rt, self._zs):
-            report.fail(
-                "tally", None, [],
-                f"counters (ranks {self._rs}, roots {self._rt}, 0,i-nodes {self._zs}) "
-                f"but the structure has ({rs}, {rt}, {zs})",
-            )
         figures["potential"] = self._phi()
         return figures
 
@@ -605,24 +469,3 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
             "remove": 8 * lg + 16,
             "change_key": 8 * lg + 35,
         }.get(op, 8 * lg + 35)
-
-
-def _tally(roots: list[Any]) -> tuple[int, int, int]:
-    """(rank sum, roots, non-root 0,i-nodes) from scratch, iteratively.  O(n)."""
-    rs = zs = 0
-    for root in roots:
-        rs += root._rank
-        stack = [] if root._left is None else [root._left]
-        while stack:
-            x = stack.pop()
-            rs += x._rank
-            left, right = x._left, x._right
-            a = -1 if left is None else left._rank
-            b = -1 if right is None else right._rank
-            if a - b > 1 or b - a > 1:
-                zs += 1
-            if left is not None:
-                stack.append(left)
-            if right is not None:
-                stack.append(right)
-    return rs, len(roots), zs
