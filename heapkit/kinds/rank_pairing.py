@@ -23,22 +23,35 @@ worst-case.  A half-tree of rank ``r`` holds at least ``F(r+2) >= phi**r`` nodes
 (minimum reached by 1,2-nodes: ``N(r) = 1 + N(r-1) + N(r-2)``), so every rank is at
 most ``log_phi n``.
 
+Operations: pop turns the right spine of the removed root's left child into
+half-trees and links every half-tree in one pass (one bucket per rank: a
+half-tree meeting an equal rank is linked and set aside, the rest wait), then
+makes the least result the first root.  decrease_key compares with the first
+root only, cuts the node with its left subtree (exactly one cut) and walks up
+lowering ranks to the rule.  remove cuts, spills the node's left spine into
+roots and links nothing; change_key upward does the same and re-enters the node
+as a one-node root (on the first root it runs pop's linking pass instead).
+
 Cost unit: links + cuts + ranks written + roots scanned + 1.  Potential (c folded
-in, ``PHI_C = 1``): ``Phi = 7 * sum over non-roots of (r - a) + (r - b)``
+in, ``PHI_C = 1``): ``Phi = 7 * sum over non-roots of ((r - a) + (r - b))``
 ``+ 6 * #0,i-nodes + 18 * #roots``, kept in O(1) counters as
-``7 * (rank sum) + 7 * n + 11 * #roots + 6 * #0,i-nodes`` (the rank differences
-telescope).  Derivation: a link adds a 1,1-node (+14) and drops a root (-18) and
-pays 4 (link, rank, 2 scans); a spine node with its 0-child on the right pays its
-cut, scan and rank (2) from ``-7(i-1) - 6 + 11``, other spine nodes (at most
-``r(min)``) cost 14, so pop <= ``8 log_phi n - 16``; a decrease-key walk of ``j``
-rank drops costs ``j + 4`` and ``Phi`` changes by at most ``11 + 7(1-j) + 6(j+1)``,
-so 28; push 1 + 18 = 19; remove <= ``7 log_phi n + 16``; change_key up adds a root.
+``7 * (rank sum) + 7 * n + 11 * #roots + 6 * #0,i-nodes`` (the differences
+telescope).  Derivation, with a pop scanning ``H = 2L + U`` half-trees (``L``
+links, ``U <= log_phi n + 1`` left unlinked): a link makes a root a 1,1-node
+(+14 - 18) and pays its link, rank write and two scans; a spine node whose 0-child
+is on the right pays its cut and rank write from ``11 - 7(i-1) - 6 <= -2``; the
+other spine nodes (at most ``r(min) <= log_phi n``) cost at most 14 each; the
+popped root gives back ``7 r(min) + 18``: pop <= ``8 log_phi n - 16``.  A
+decrease-key walk of ``j`` rank drops costs ``j + 4`` and moves Phi by at most
+``11 + 7(1 - j) + 6(j + 1)``: 28.  push ``1 + 18``; meld 1 (the two Phi add);
+remove <= ``7 log_phi n + 16``; change_key upward <= ``8 log_phi n + 35``.
 
 Source: B. Haeupler, S. Sen, R. E. Tarjan, "Rank-pairing heaps", SIAM J. Comput.
-40(6) (2011) 1463-1485; ESA 2009.  The type-2 rule above is recalled from memory
-(1,1-, 1,2- or 0,i-nodes with i > 1, roots one above their left child) and is the
-rule implemented; the paper's own potential is recalled imperfectly, so the
-weights above are this module's own derivation in the paper's style.
+40(6) (2011); ESA 2009.  The type-2 rule above is recalled from memory (every
+non-root a 1,1-, 1,2- or 0,i-node with i > 1, every root one above its left
+child) and is exactly the rule implemented; so is the F(r+2) size bound, which
+the recurrence above re-derives.  The paper's own potential is recalled only
+imperfectly, so the weights above are this module's own derivation in its style.
 """
 
 from __future__ import annotations
@@ -342,9 +355,10 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
                 try:
                     wins = k < nxt._k
                 except BaseException:
-                    enlist(nxt, x)
+                    enlist(nxt, x)  # x, still at its old key, is the least
                     self._first = x
                     self._rt += 1
+                    self._ver += 1
                     raise
                 enlist(nxt, x)
                 if wins:
