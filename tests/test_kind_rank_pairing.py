@@ -467,3 +467,33 @@ def test_comparisons_for_pushes_and_pops_against_heapq() -> None:
         h.pop()
     # one-pass linking: within 2.5x of heapq's count (measured 1.6-1.9x at 1e3-1e5)
     assert Counted.count < 2.5 * heapq_count
+
+
+def test_local_survey_passes_after_every_operation_of_a_workload() -> None:
+    rng = random.Random(12)
+    h: RankPairingHeap[int, int] = RankPairingHeap(stable=True)
+    live: list[Any] = []
+    for step in range(1500):
+        r = rng.random()
+        x = rng.choice(live) if live else None
+        if r < 0.35 or x is None:
+            touched = h._touched("push", None)
+            x = h.push(rng.randint(0, 1000), step)
+            live.append(x)
+        elif r < 0.5:
+            touched = h._touched("pop", None)
+            h.pop()
+        elif r < 0.8:
+            touched = h._touched("decrease_key", x)
+            h.decrease_key(x, x.key - rng.randint(0, 300))
+        elif r < 0.9:
+            touched = h._touched("change_key", x)
+            h.change_key(x, rng.randint(0, 1000))
+        else:
+            touched = h._touched("remove", x)
+            h.remove(x)
+        live = [y for y in live if y.alive]
+        report = Report()
+        h._survey_local(report, touched, x)
+        assert report.problems == [], (step, report.problems)
+    heapkit.check(h)
