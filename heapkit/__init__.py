@@ -9,7 +9,17 @@ from heapkit.errors import (
     InvariantError,
     KeyOrderError,
 )
-from heapkit.kinds import DEFAULT, KINDS, BinaryHeap, DaryHeap, FibonacciHeap, LazyHeap, PairingHeap, new
+from heapkit.kinds import (
+    DEFAULT,
+    KINDS,
+    BinaryHeap,
+    DaryHeap,
+    FibonacciHeap,
+    LazyHeap,
+    PairingHeap,
+    RankPairingHeap,
+    new,
+)
 from heapkit.protocol import Handle, Heap, Shape
 from heapkit.threads import Locked, locked
 
@@ -30,6 +40,7 @@ __all__ = [
     "LazyHeap",
     "Locked",
     "PairingHeap",
+    "RankPairingHeap",
     "Shape",
     "check",
     "locked",

@@ -9,14 +9,22 @@ from heapkit.kinds.dary import BinaryHeap, DaryHeap
 from heapkit.kinds.fibonacci import FibonacciHeap
 from heapkit.kinds.lazy import LazyHeap
 from heapkit.kinds.pairing import PairingHeap
+from heapkit.kinds.rank_pairing import RankPairingHeap
 
-__all__ = ["DEFAULT", "KINDS", "BinaryHeap", "DaryHeap", "FibonacciHeap", "LazyHeap", "PairingHeap", "new"]
+__all__ = [
+    "DEFAULT",
+    "KINDS",
+    "BinaryHeap",
+    "DaryHeap",
+    "FibonacciHeap",
+    "LazyHeap",
+    "PairingHeap",
+    "RankPairingHeap",
+    "new",
+]
 
 KINDS: Mapping[str, type] = MappingProxyType(
-    {
-        cls.KIND: cls
-        for cls in (BinaryHeap, DaryHeap, FibonacciHeap, LazyHeap, PairingHeap)
-    }
+    {cls.KIND: cls for cls in (BinaryHeap, DaryHeap, FibonacciHeap, LazyHeap, PairingHeap, RankPairingHeap)}
 )
 
 #: The kind the benchmark shows fastest on the decrease-key workloads.
