@@ -5,14 +5,16 @@ from __future__ import annotations
 from collections.abc import Mapping
 from types import MappingProxyType
 
+from heapkit.kinds.binomial import BinomialHeap
 from heapkit.kinds.dary import BinaryHeap, DaryHeap
 from heapkit.kinds.pairing import PairingHeap
 
-__all__ = ["DEFAULT", "KINDS", "BinaryHeap", "DaryHeap", "PairingHeap", "new"]
+__all__ = ["DEFAULT", "KINDS", "BinaryHeap", "BinomialHeap", "DaryHeap", "PairingHeap", "new"]
 
 KINDS: Mapping[str, type] = MappingProxyType(
     {
         BinaryHeap.KIND: BinaryHeap,
+        BinomialHeap.KIND: BinomialHeap,
         DaryHeap.KIND: DaryHeap,
         PairingHeap.KIND: PairingHeap,
     }
