@@ -10,6 +10,8 @@ from __future__ import annotations
 
 from typing import Any, ClassVar
 
+from heapkit._core import HandleBase
+
 __all__ = ["BinomialRules"]
 
 
@@ -195,8 +197,9 @@ class BinomialRules:
         self._survey_roots(report)
         nodes = [r for r in self._roots if r is not None]
         for x in [*touched, handle]:
-            if x is None or getattr(x, "_tok", None) is None or x not in self:  # type: ignore[operator]
-                continue
+            if not isinstance(x, HandleBase) or x._tok is None:
+                continue  # dead (popped, removed), or not a node (meld's other heap)
+            self._link_check(report, x)
             guard = self._n + 1
             while x is not None and guard:
                 nodes.append(x)
@@ -210,6 +213,16 @@ class BinomialRules:
             if x not in self:  # type: ignore[operator]
                 report.fail("ownership", x, self._path_of(x), "its owner token is not this heap's")
             self._family_check(report, x, self._path_of, None)
+
+    def _link_check(self, report: Any, x: Any) -> None:
+        """Every link of x has its partner pointing back."""
+        p, n, c = x._prev, x._next, x._child
+        if p is not None and p._child is not x and p._next is not x:
+            report.fail("links", x, self._path_of(x), "its prev does not point back to it")
+        if n is not None and n._prev is not x:
+            report.fail("links", x, self._path_of(x), "its right sibling's prev does not point back")
+        if c is not None and c._prev is not x:
+            report.fail("links", x, self._path_of(x), "its leftmost child's prev does not point back")
 
     # --- audit -------------------------------------------------------------------
     def _phi(self) -> float:
