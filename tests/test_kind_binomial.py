@@ -145,7 +145,7 @@ def test_every_operation_keeps_its_amortized_bound() -> None:
             h.meld(other)
         actual = h._cost(op, probe, arg)
         amortized = actual + h.PHI_C * (h._phi() - before)
-        assert 1 <= actual and amortized <= h._bound(op, n), (op, actual, amortized, n)
+        assert actual >= 1 and amortized <= h._bound(op, n), (op, actual, amortized, n)
     heapkit.check(h)
 
 
@@ -395,7 +395,7 @@ def _setup(stable: bool) -> tuple[Any, Any]:
     o: BinomialHeap[Fuse, int] = BinomialHeap(stable=stable)
     for i in range(47):
         h.push(Fuse(rnd.randrange(40)), i)
-    for i in range(5):
+    for _ in range(5):
         h.pop()
     for i in range(100, 123):
         o.push(Fuse(rnd.randrange(40)), i)

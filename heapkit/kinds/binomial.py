@@ -49,7 +49,7 @@ from collections.abc import Callable, Iterable, Iterator
 from typing import Any, ClassVar, Generic, TypeVar
 
 from heapkit._core import HeapBase, empty_error, nan_error, upward_error
-from heapkit.kinds.binomial_forest import _ancestors, _apply, _Node, _parent, _plan, _plan_push, _scan
+from heapkit.kinds.binomial_forest import _ancestors, _apply, _Node, _plan, _plan_push, _scan
 from heapkit.kinds.binomial_rules import BinomialRules
 from heapkit.protocol import Handle
 
@@ -256,17 +256,24 @@ class BinomialHeap(BinomialRules, HeapBase[K, V], Generic[K, V]):
     # Compares along the path first (and with the min), then swaps.
     def _lower(self, x: Any, key: Any, k: Any) -> None:
         path = []
-        p = _parent(x)
-        while p is not None and k < p._k:
+        y = x
+        while True:
+            p = y._prev  # walk left to the leftmost sibling: its prev is the parent
+            while p is not None and p._child is not y:
+                y = p
+                p = y._prev
+            if p is None or not k < p._k:
+                break
             path.append(p)
-            p = _parent(p)
+            y = p
         mn = self._min
-        if p is None and mn is not x and (mn in path or k < mn._k):
+        if p is None and mn is not x and ((path and path[-1] is mn) or k < mn._k):
             mn = x
         x._key = key
         x._k = k
+        swap = self._swap_up
         for p in path:
-            self._swap_up(x, p)
+            swap(x, p)
         self._min = mn
         self._ver += 1
 
