@@ -12,6 +12,7 @@ import heapq
 import math
 import pickle
 import random
+import re
 from collections.abc import Callable
 from typing import Any
 
@@ -114,8 +115,9 @@ def test_push_costs_at_most_2_amortized_and_links_follow_the_binary_counter() ->
     assert sum(x._deg for x in h) == total
 
 
-def test_every_operation_keeps_its_amortized_bound() -> None:
-    # The bounds derived in heapkit/kinds/binomial.py from Vuillemin 1978.
+def test_every_operation_keeps_its_amortized_bound_and_passes_local_checks() -> None:
+    # The bounds derived in heapkit/kinds/binomial.py from Vuillemin 1978; the
+    # local survey (checked mode) must find nothing on a correct heap.
     rnd = random.Random(11)
     h, handles = filled(700, seed=11)
     other, more = filled(300, seed=12)
@@ -129,7 +131,8 @@ def test_every_operation_keeps_its_amortized_bound() -> None:
             arg = other
         n = len(h) + (len(other) if op == "meld" else 0)
         probe = h._cost_probe(op, arg)
-        before = h._phi() + (other._phi() if op == "meld" else 0)
+        touched = h._touched(op, arg)
+        before = h._phi()
         if op == "pop":
             h.pop()
         elif op == "push":
@@ -145,6 +148,9 @@ def test_every_operation_keeps_its_amortized_bound() -> None:
             h.meld(other)
         actual = h._cost(op, probe, arg)
         amortized = actual + h.PHI_C * (h._phi() - before)
+        report = Report()
+        h._survey_local(report, touched, arg)
+        assert not report.problems
         assert actual >= 1 and amortized <= h._bound(op, n), (op, actual, amortized, n)
     heapkit.check(h)
 
@@ -152,11 +158,13 @@ def test_every_operation_keeps_its_amortized_bound() -> None:
 # --- every rule is checked ------------------------------------------------------------------
 
 
-def _broken(h: Any, rule: str, entry: Any, where: str = "root of degree") -> None:
+def _broken(h: Any, rule: str, entry: Any, where: str = "root of degree", only: bool = True) -> None:
     with pytest.raises(heapkit.InvariantError) as info:
         heapkit.check(h)
     msg = str(info.value)
     assert f"rule {rule!r} broken" in msg, msg
+    if only:  # the corruption breaks exactly this rule
+        assert set(re.findall(r"rule '([a-z-]+)' broken", msg)) == {rule}, msg
     if entry is not None:
         assert f"entry ({entry.key!r}, {entry.value!r})" in msg, msg
     assert where in msg, msg
@@ -200,15 +208,20 @@ def test_rule_binomial_shape_counts_nodes() -> None:
     h._roots[5], h._roots[4] = None, top
     h._roots.pop()
     h._n -= 1
-    _broken(h, "binomial-shape", top)
+    _broken(h, "binomial-shape", top, only=False)
 
 
 def test_rule_root_degrees() -> None:
     h, _ = filled(9)  # roots of degree 0 and 3
-    r = h._roots[0]
-    h._roots[0], h._roots[1] = None, r
+    r = next(r for r in h._roots if r is not None and r is not h._min)
+    d = r._deg
+    h._roots[d], h._roots[1] = None, r
     _broken(h, "root-degrees", r, "root of degree 1")
     _local(h, [], "root-degrees")
+    h._roots[1], h._roots[d] = None, r
+    heapkit.check(h)
+    h._roots.pop()  # the trailing empty slot
+    _broken(h, "root-degrees", None, "the heap")
 
 
 def test_rule_links() -> None:
@@ -225,7 +238,7 @@ def test_rule_links_node_twice() -> None:
     top = h._roots[4]
     kids = children(top)
     kids[-1]._next = kids[0]  # a cycle through the sibling list
-    _broken(h, "links", kids[0], "root of degree 4")
+    _broken(h, "links", kids[0], "root of degree 4", only=False)
 
 
 def test_rule_min() -> None:

@@ -97,10 +97,10 @@ class BinomialRules:
                 for c in self._family_check(report, x, lambda y: self._path(y, seen), seen):
                     stack.append((c, depth + 1))
             count += size
-            if size != 1 << d:
+            if size != 1 << r._deg:
                 report.fail(
                     "binomial-shape", r, self._path(r, seen),
-                    f"a tree of degree {d} holds {size} nodes, not 2**{d} = {1 << d}",
+                    f"a tree of degree {r._deg} holds {size} nodes, not {1 << r._deg}",
                 )
         if count != n:
             report.fail("size", None, [], f"the trees hold {count} nodes but len is {n}")
@@ -159,7 +159,7 @@ class BinomialRules:
         for d, r in enumerate(roots):
             if r is None:
                 continue
-            total += 1 << d
+            total += 1 << r._deg
             where = [f"root of degree {d}"]
             if r._deg != d:
                 report.fail("root-degrees", r, where, f"the root in slot {d} has degree {r._deg}")
@@ -187,7 +187,7 @@ class BinomialRules:
     def _touched(self, op: str, handle: Any) -> list[Any]:
         """The handle (for key changes and removals) and the min: cheap, O(1)."""
         out = [] if self._min is None else [self._min]
-        if handle is not None and getattr(handle, "_tok", None) is not None and handle in self:  # type: ignore[operator]
+        if isinstance(handle, HandleBase) and handle._tok is not None and handle in self:  # type: ignore[operator]
             out.append(handle)
         return out
 
