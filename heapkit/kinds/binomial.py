@@ -116,10 +116,15 @@ class BinomialHeap(BinomialRules, HeapBase[K, V], Generic[K, V]):
             self._min = x  # x is below every root: it wins every link
         else:
             # Compare first: bit d set when the root of degree d wins its link.
+            # Once the min joins the carry it wins every later link unasked
+            # (so a tie never buries the min below a root).
             ck = k
             d = 0
             r = roots[0]
             while r is not None:
+                if r is mn:
+                    bits |= 1 << d
+                    break
                 rk = r._k
                 if not ck < rk:
                     bits |= 1 << d
