@@ -79,6 +79,10 @@ class BinomialRules:
         n = self._n
         self._survey_roots(report)
         seen: dict[int, tuple[Any, str]] = {}
+
+        def path(y: Any) -> list[str]:
+            return self._path(y, seen)
+
         count = trees = height = max_degree = 0
         for d, r in enumerate(roots):
             if r is None:
@@ -93,13 +97,13 @@ class BinomialRules:
                 height = max(height, depth)
                 max_degree = max(max_degree, x._deg)
                 if x not in self:  # type: ignore[operator]
-                    report.fail("ownership", x, self._path(x, seen), "its owner token is not this heap's")
-                for c in self._family_check(report, x, lambda y: self._path(y, seen), seen):
+                    report.fail("ownership", x, path(x), "its owner token is not this heap's")
+                for c in self._family_check(report, x, path, seen):
                     stack.append((c, depth + 1))
             count += size
             if size != 1 << r._deg:
                 report.fail(
-                    "binomial-shape", r, self._path(r, seen),
+                    "binomial-shape", r, path(r),
                     f"a tree of degree {r._deg} holds {size} nodes, not {1 << r._deg}",
                 )
         if count != n:
