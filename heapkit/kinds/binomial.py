@@ -283,9 +283,7 @@ class BinomialHeap(BinomialRules, HeapBase[K, V], Generic[K, V]):
             mn = x
         x._key = key
         x._k = k
-        swap = self._swap_up
-        for p in path:
-            swap(x, p)
+        self._lift(x, path)
         self._min = mn
         self._ver += 1
 
@@ -293,7 +291,7 @@ class BinomialHeap(BinomialRules, HeapBase[K, V], Generic[K, V]):
     # array of the children x has once it is there (the top ancestor takes the
     # place of the child on the path).
     def _lift_plan(self, x: Any) -> tuple[list[Any], list[Any]]:
-        path = _ancestors(x)
+        path = _ancestors(x, self._n)
         top = path[-1] if path else x
         kids = self._kids(top)
         if path:

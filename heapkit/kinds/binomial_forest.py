@@ -12,7 +12,7 @@ from typing import Any, TypeVar
 
 from heapkit._core import HandleBase
 
-__all__ = ["_Node", "_ancestors", "_apply", "_parent", "_plan", "_plan_push", "_scan"]
+__all__ = ["_Node", "_ancestors", "_apply", "_plan", "_plan_push", "_scan", "_up"]
 
 K = TypeVar("K")
 V = TypeVar("V")
@@ -36,23 +36,27 @@ class _Node(HandleBase[K, V]):
         self._deg = 0
 
 
-# Precondition: x is a node.  Returns its parent (None for a root); walks left
-# to the leftmost sibling, whose prev is the parent.  No comparison.
-def _parent(x: Any) -> Any:
+# Precondition: x is a node.  Returns (its parent or None for a root, its
+# index among its siblings), walking left to the leftmost sibling, whose prev
+# is the parent -- at most ``guard`` steps (a bound for corrupted links).
+def _up(x: Any, guard: int) -> tuple[Any, int]:
+    i = 0
     p = x._prev
-    while p is not None and p._child is not x:
+    while p is not None and p._child is not x and i <= guard:
         x = p
         p = x._prev
-    return p
+        i += 1
+    return p, i
 
 
-# Precondition: x is a node.  Returns its ancestors, nearest first.
-def _ancestors(x: Any) -> list[Any]:
-    out = []
-    p = _parent(x)
-    while p is not None:
+# Precondition: x is a node of a heap of ``n`` entries.  Its ancestors,
+# nearest first.  The walks telescope to O(log n) steps (see binomial.py).
+def _ancestors(x: Any, n: int) -> list[Any]:
+    out: list[Any] = []
+    p = _up(x, n)[0]
+    while p is not None and len(out) <= n:
         out.append(p)
-        p = _parent(p)
+        p = _up(p, n)[0]
     return out
 
 

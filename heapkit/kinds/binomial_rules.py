@@ -11,6 +11,7 @@ from __future__ import annotations
 from typing import Any, ClassVar
 
 from heapkit._core import HandleBase
+from heapkit.kinds.binomial_forest import _ancestors, _up
 
 __all__ = ["BinomialRules"]
 
@@ -18,17 +19,6 @@ __all__ = ["BinomialRules"]
 def _lg(n: int) -> int:
     """floor(log2 n), and 0 for n < 2."""
     return max(0, n.bit_length() - 1)
-
-
-def _up(x: Any, guard: int) -> tuple[Any, int]:
-    """(parent of x or None, x's index among its siblings); at most guard steps."""
-    i = 0
-    p = x._prev
-    while p is not None and p._child is not x and i <= guard:
-        x = p
-        p = x._prev
-        i += 1
-    return p, i
 
 
 class BinomialRules:
@@ -235,13 +225,8 @@ class BinomialRules:
 
     def _depth_root(self, x: Any) -> tuple[int, int]:
         """(depth of x, degree of its tree's root)."""
-        depth = 0
-        p = _up(x, self._n)[0]
-        while p is not None:
-            depth += 1
-            x = p
-            p = _up(x, self._n)[0]
-        return depth, x._deg
+        up = _ancestors(x, self._n)
+        return len(up), (up[-1] if up else x)._deg
 
     def _cost_probe(self, op: str, handle: Any) -> Any:
         phi = int(self._phi())
