@@ -250,6 +250,8 @@ class BinomialRules:
         if op == "meld":
             other: int = probe[1]
             return (before + other - after) + 1
+        if len(probe) < 5:
+            return 1  # an operation without a cost model here (none of the six above)
         depth: int = probe[1]
         top: int = probe[2]
         was_min, raised = probe[3], probe[4]
