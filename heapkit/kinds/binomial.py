@@ -40,7 +40,7 @@ walking left to the leftmost sibling; along a root path those walks telescope
 to at most ``log2 n`` steps, since a degree-``j`` child of a degree-``k``
 node stands ``k - 1 - j`` places from the left.  Measured against separate
 handle objects with content swaps (50k random keys, CPU time, best of 9):
-push 2.3x faster (one object, not two), decrease_key about 20% slower; and
+push 2.2-2.7x faster (one object, not two), decrease_key 15-25% slower; and
 the shared handle machinery of ``_core`` applies unchanged.  A min pointer is
 kept (one comparison per push) so ``peek`` is O(1).  Every operation compares
 first: it plans all links on the roots' keys (``_plan``), then links without
