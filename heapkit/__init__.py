@@ -27,6 +27,7 @@ __all__ = [
     "DEFAULT",
     "KINDS",
     "BinaryHeap",
+    "BinomialHeap",
     "BoundExceededError",
     "DaryHeap",
     "EmptyHeapError",

@@ -5,6 +5,7 @@ from __future__ import annotations
 from collections.abc import Mapping
 from types import MappingProxyType
 
+from heapkit.kinds.binomial import BinomialHeap
 from heapkit.kinds.dary import BinaryHeap, DaryHeap
 from heapkit.kinds.fibonacci import FibonacciHeap
 from heapkit.kinds.lazy import LazyHeap
@@ -15,6 +16,7 @@ __all__ = [
     "DEFAULT",
     "KINDS",
     "BinaryHeap",
+    "BinomialHeap",
     "DaryHeap",
     "FibonacciHeap",
     "LazyHeap",
@@ -24,7 +26,10 @@ __all__ = [
 ]
 
 KINDS: Mapping[str, type] = MappingProxyType(
-    {cls.KIND: cls for cls in (BinaryHeap, DaryHeap, FibonacciHeap, LazyHeap, PairingHeap, RankPairingHeap)}
+    {
+        cls.KIND: cls
+        for cls in (BinaryHeap, BinomialHeap, DaryHeap, FibonacciHeap, LazyHeap, PairingHeap, RankPairingHeap)
+    }
 )
 
 #: The kind the benchmark shows fastest on the decrease-key workloads.
