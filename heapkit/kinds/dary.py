@@ -38,6 +38,7 @@ from heapkit._core import (
     nan_error,
     upward_error,
 )
+from heapkit.kinds import dary_checks
 from heapkit.protocol import Handle
 
 __all__ = ["BinaryHeap", "DaryHeap"]
@@ -336,7 +337,7 @@ class DaryHeap(HeapBase[K, V], Generic[K, V]):
         b = other._a
         n, m = len(a), len(b)
         tok = self._tok
-        if m * max(1, n.bit_length()) < n + m:
+        if self._meld_by_pushes(n, m):
             # A few entries into many: push them, undoing in reverse on failure.
             done = 0
             try:
@@ -368,6 +369,16 @@ class DaryHeap(HeapBase[K, V], Generic[K, V]):
                 raise
         for x in b:
             x._tok = tok
+
+    @staticmethod
+    def _meld_by_pushes(n: int, m: int) -> bool:
+        """Does meld push ``m`` entries one by one into ``n`` (else heapify all)?"""
+        return m * max(1, n.bit_length()) < n + m
+
+    # Checked mode and to_dot (see dary_checks.py and the SPI in _core.py).
+    _touched = dary_checks.touched
+    _survey_local = dary_checks.survey_local
+    _dot_edges = dary_checks.dot_edges
 
     # Precondition: x was the last entry pushed and nothing moved since.
     # Restores: the array as it was before that push.  No comparison.

@@ -1,0 +1,167 @@
+"""What checked mode and ``to_dot`` ask of a pairing heap (kept beside ``pairing.py``).
+
+Incremental checking: an operation changes the links of a few nodes only.
+
+* push: the new node and the old root (one becomes the other's first child);
+* pop: the old root's children (two-pass pairing relinks each of them);
+* decrease_key: the node, its old left neighbour (``prev``), its old right
+  sibling (``next``) and the root;
+* change_key, remove: those, plus the node's children (they are paired);
+* meld: both roots.
+
+Around each touched node ``x`` the local survey checks ``x``'s own links
+(``x.prev`` points at a node whose ``child`` or ``next`` is ``x``; ``x.next.prev
+is x``; the root has neither), the order against ``x.prev`` where that is its
+parent, and walks ``x``'s children from the first while they are touched nodes
+(new first children are added at the front), one further child included:
+their ``prev`` links, their order against ``x`` and their ownership.  Pop's
+cost is O(degree of the old root), which is what pop itself spends.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterator
+from typing import Any
+
+__all__ = ["dot_edges", "path_up", "survey_local", "touched"]
+
+
+def _children(x: Any) -> list[Any]:
+    out = []
+    c = x._child
+    while c is not None:
+        out.append(c)
+        c = c._next
+    return out
+
+
+def touched(heap: Any, op: str, handle: Any) -> Any:
+    """The nodes whose neighbourhood ``op`` may change (None: check everything)."""
+    root = heap._root
+    if op == "push":
+        return [root]
+    if op == "pop":
+        return [] if root is None else [root, *_children(root)]
+    if op == "meld":
+        return [root, handle._root]
+    if op in ("decrease_key", "change_key", "remove"):
+        x = handle
+        nodes = [x, x._prev, x._next, root]
+        if op != "decrease_key":
+            nodes += _children(x)
+        return nodes
+    return None
+
+
+def path_up(heap: Any, x: Any) -> list[str]:
+    """Steps from the root to ``x`` found by walking ``prev`` links upward.
+
+    Bounded by ``len(heap) + 2`` steps, so broken links cannot loop it; a node
+    that does not reach the root gets a path starting ``(detached)``.
+    """
+    steps: list[str] = []
+    budget = heap._n + 2
+    root = heap._root
+    while x is not root:
+        i = 0
+        c = x
+        while True:
+            p = c._prev
+            budget -= 1
+            if p is None or budget < 0:
+                steps.append("(no path to the root)")
+                steps.reverse()
+                return steps
+            if p._child is c:
+                break
+            c = p
+            i += 1
+        steps.append(f"child {i}")
+        x = p
+    steps.append("root")
+    steps.reverse()
+    return steps
+
+
+def survey_local(heap: Any, report: Any, nodes: Any, handle: Any) -> None:
+    """Check the rules around ``nodes`` (from :func:`touched`) after the operation."""
+    root = heap._root
+    n = heap._n
+    if (root is None) != (n == 0):
+        report.fail("size", root, [], f"len is {n} but the root is {'missing' if root is None else 'set'}")
+    if root is not None:
+        if root._prev is not None or root._next is not None:
+            report.fail("links", root, ["root"], "the root has a sibling link")
+        if root not in heap:
+            report.fail("ownership", root, ["root"], "its owner token is not this heap's")
+    todo = [x for x in nodes if x is not None]
+    if handle is not None and hasattr(handle, "_child"):
+        todo.append(handle)
+    if root is not None:
+        todo.append(root)
+    ids = {id(x) for x in todo}
+    done: set[int] = set()
+    for x in todo:
+        if id(x) in done or x._tok is None:  # dead: popped or removed; its neighbours are checked
+            continue
+        done.add(id(x))
+        _around(heap, report, x, ids)
+
+
+def _around(heap: Any, report: Any, x: Any, ids: set[int]) -> None:
+    if x is not heap._root:
+        p = x._prev
+        if p is None:
+            report.fail("links", x, path_up(heap, x), "a node below the root has no prev link")
+        elif p._child is x:
+            if x._k < p._k:
+                detail = f"key {x._key!r} is smaller than its parent's {p._key!r}"
+                report.fail("heap-order", x, path_up(heap, x), detail)
+        elif p._next is not x:
+            report.fail("links", x, path_up(heap, x), "its prev node does not link back to it")
+    if x not in heap:
+        report.fail("ownership", x, path_up(heap, x), "its owner token is not this heap's")
+    nx = x._next
+    if nx is not None and nx._prev is not x:
+        report.fail("links", nx, _sibling_path(path_up(heap, x)), "prev does not point back")
+    prev = x
+    c = x._child
+    i = 0
+    here: list[str] | None = None
+    while c is not None:
+        broken_link = c._prev is not prev
+        smaller = c._k < x._k
+        foreign = c not in heap
+        if broken_link or smaller or foreign:
+            if here is None:
+                here = path_up(heap, x)
+            at = [*here, f"child {i}"]
+            if broken_link:
+                report.fail("links", c, at, "prev does not point back")
+            if smaller:
+                report.fail("heap-order", c, at, f"key {c._key!r} is smaller than its parent's {x._key!r}")
+            if foreign:
+                report.fail("ownership", c, at, "its owner token is not this heap's")
+        i += 1
+        if id(c) not in ids or i > heap._n:
+            break
+        prev = c
+        c = c._next
+
+
+def _sibling_path(path: list[str]) -> list[str]:
+    """The path of the right sibling of the node at ``path``."""
+    last = path[-1] if path else ""
+    if last.startswith("child ") and last[6:].isdigit():
+        return [*path[:-1], f"child {int(last[6:]) + 1}"]
+    return [*path, "(next)"]
+
+
+def dot_edges(heap: Any) -> Iterator[tuple[Any, Any, str]]:
+    """``(parent or None, node, "degree d")`` in preorder, iteratively."""
+    stack: list[tuple[Any, Any]] = [] if heap._root is None else [(None, heap._root)]
+    while stack:
+        parent, x = stack.pop()
+        kids = _children(x)
+        yield parent, x, f"degree {len(kids)}"
+        stack.extend((x, c) for c in reversed(kids))
