@@ -443,15 +443,16 @@ class DaryHeap(HeapBase[K, V], Generic[K, V]):
         if len(a) != self._n:
             report.fail("size", None, [], f"the array holds {len(a)} entries but len is {self._n}")
         n = len(a)
+        # span: how many entries levels 0..height hold; stop once they hold n.
         height = 0
         span = 1
-        while span < n + 1 and n:
+        while span < n:
             span = span * d + 1
             height += 1
         return {
             "size": n,
             "roots": 1 if n else 0,
-            "height": max(0, height - 1),
+            "height": height,
             "max_degree": min(d, max(0, n - 1)),
             "marked": None,
             "potential": None,

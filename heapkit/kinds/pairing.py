@@ -460,7 +460,7 @@ class PairingHeap(HeapBase[K, V], Generic[K, V]):
                 c = c._next
             max_degree = max(max_degree, degree)
         if count != self._n:
-            report.fail("size", root, [], f"{count} nodes reachable but len is {self._n}")
+            report.fail("size", None, [], f"{count} nodes reachable but len is {self._n}")
         return {
             "size": count,
             "roots": 0 if root is None else 1,
