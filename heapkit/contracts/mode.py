@@ -12,8 +12,9 @@ After each ``every``-th operation the layer verifies only what the operation
 touched, through the kind's hooks ``_touched(op, handle)`` (before) and
 ``_survey_local(report, touched, handle)`` (after); a full ``check`` runs every
 ``full_every`` operations (by default once the operations since the last full
-check outnumber the entries, so checking stays O(1) amortized per entry
-visited).  Kinds without the hooks get a full check each time.  An operation
+check outnumber half the entries: O(1) amortized entries visited per
+operation, and a heap that only grows is still checked in full each time it
+grows by half).  Kinds without the hooks get a full check each time.  An operation
 that raises from a key's ``<`` is followed by a full check.
 """
 
@@ -234,7 +235,8 @@ def _begin(h: Any, op: str, handle: Any, depth: int = 2) -> _State | None:
     st.since_full += 1
     due = st.count % st.every == 0
     fe = st.full_every
-    st.full = st.force or (fe is not None and st.since_full >= fe) or (fe is None and st.since_full > h._n)
+    since = st.since_full
+    st.full = st.force or (since >= fe if fe is not None else 2 * since > h._n)
     st.touched = _NOTHING
     if due and not st.full:
         if not st.local or op == "clear":
@@ -266,11 +268,21 @@ def _outside(h: Any, st: _State) -> None:
 
 
 def _end(h: Any, st: _State, subject: Any, entry: Entry, also: Any = None) -> None:
-    """Finish a wrapped operation: record it, then verify what is due."""
-    st.busy = None
+    """Finish a wrapped operation: record it, then verify what is due.
+
+    The guard stays up while the checks compare keys: a meddling key must not
+    change the heap under the survey either.
+    """
     st.ver = h._ver
     st.history.append(entry)
     st.record.append(entry)
+    try:
+        _verify(h, st, subject, also)
+    finally:
+        st.busy = None
+
+
+def _verify(h: Any, st: _State, subject: Any, also: Any) -> None:
     report = Report()
     touched, st.touched = st.touched, _NOTHING
     if st.full:
@@ -293,16 +305,18 @@ def _abort(h: Any, st: _State, exc: BaseException) -> None:
     """An operation raised: heapkit's own errors must leave the heap as it was,
     any other exception must leave every rule intact (a full check)."""
     op = st.busy
-    st.busy = None
     st.touched = _NOTHING
     report = Report()
-    if isinstance(exc, HeapError):
-        if h._ver != st.ver_before:
-            report.fail("unchanged", None, [], f"{op} raised {type(exc).__name__} yet changed the heap")
-    else:
-        st.since_full = 0
-        report.run(h._survey)
-    st.ver = h._ver
+    try:
+        if isinstance(exc, HeapError):
+            if h._ver != st.ver_before:
+                report.fail("unchanged", None, [], f"{op} raised {type(exc).__name__} yet changed the heap")
+        else:
+            st.since_full = 0
+            report.run(h._survey)
+    finally:
+        st.busy = None
+        st.ver = h._ver
     if report.problems:
         raise _failure(h, st, report) from exc
 
@@ -451,7 +465,6 @@ def _inner_meld(h: Any, other: Any) -> None:
     report = Report()
     report.run(other._survey)
     if report.problems:
-        st.busy = None
         raise _failure(h, st, report)
     st.touched = h._touched("meld", other) if _valid(h, "meld", other) else None
     st.subject = other

@@ -9,6 +9,9 @@ Incremental checking: an operation changes the links of a few nodes only.
 * change_key, remove: those, plus the node's children (they are paired);
 * meld: both roots.
 
+The handle whose key changed is also checked against its parent, found by
+walking ``prev`` links (O(1) when the operation left it where it should).
+
 Around each touched node ``x`` the local survey checks ``x``'s own links
 (``x.prev`` points at a node whose ``child`` or ``next`` is ``x``; ``x.next.prev
 is x``; the root has neither), the order against ``x.prev`` where that is its
@@ -106,6 +109,25 @@ def survey_local(heap: Any, report: Any, nodes: Any, handle: Any) -> None:
             continue
         done.add(id(x))
         _around(heap, report, x, ids)
+    if handle is not None and hasattr(handle, "_child") and handle._tok is not None:
+        _against_parent(heap, report, handle)
+
+
+# The handle's key changed, so its order against its parent must be checked even
+# where it is not the first child; a correct operation leaves it the root or the
+# root's first child, so the walk to the parent is O(1) unless the kind is wrong.
+def _against_parent(heap: Any, report: Any, x: Any) -> None:
+    c = x
+    budget = heap._n + 1
+    while c is not heap._root and c._prev is not None and budget > 0:
+        p = c._prev
+        if p._child is c:
+            if c is not x and x._k < p._k:
+                detail = f"key {x._key!r} is smaller than its parent's {p._key!r}"
+                report.fail("heap-order", x, path_up(heap, x), detail)
+            return
+        c = p
+        budget -= 1
 
 
 def _around(heap: Any, report: Any, x: Any, ids: set[int]) -> None:
