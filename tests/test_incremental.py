@@ -26,6 +26,7 @@ from tests.corruption import local_rules
 
 NAMES = ["binary", "dary", "pairing"]
 SMALL = st.integers(0, 60)
+GROW_OPS = st.sampled_from(["push", "push", "push", "pop", "decrease_key", "change_key", "remove"])
 
 
 def _grow(data: Any, h: Any) -> list[Any]:
@@ -33,7 +34,7 @@ def _grow(data: Any, h: Any) -> list[Any]:
     handles: list[Any] = []
     for step in range(data.draw(st.integers(0, 30), label="steps")):
         live = [x for x in handles if x.alive]
-        op = data.draw(st.sampled_from(["push", "push", "push", "pop", "decrease_key", "change_key", "remove"]))
+        op = data.draw(GROW_OPS)
         if op == "push" or not live:
             handles.append(h.push(data.draw(SMALL), step))
         elif op == "pop":
@@ -169,7 +170,9 @@ def test_full_check_catches_a_corruption_anywhere(name: str, data: Any) -> None:
 
 
 @given(name=st.sampled_from(NAMES), stable=st.booleans(), data=st.data())
-def test_checked_mode_with_local_checks_runs_healthy_sequences_quietly(name: str, stable: bool, data: Any) -> None:
+def test_checked_mode_with_local_checks_runs_healthy_sequences_quietly(
+    name: str, stable: bool, data: Any
+) -> None:
     h = checked(heapkit.KINDS[name](stable=stable), full_every=10**9)
     handles: list[Any] = []
     for step in range(data.draw(st.integers(0, 40))):
