@@ -23,7 +23,7 @@ not push (a window cut from a longer record) with their recorded keys, then
 each operation runs on a heap checked after every operation, so a failure in
 the kind shows up at the same operation.  A checked heap keeps the complete
 record since its last passing full check (at most ``full_every`` operations,
-or about ``len(heap) / 2`` by default) with a snapshot of its entries at that
+or the heap's size at that check by default) with a snapshot of its entries at that
 check, so ``HistoryError.replay`` is faithful to the entries and the
 operations; the shape built by the replay may still differ from the
 original's.  Replay starts after the last

@@ -12,9 +12,9 @@ After each ``every``-th operation the layer verifies only what the operation
 touched, through the kind's hooks ``_touched(op, handle)`` (before) and
 ``_survey_local(report, touched, handle)`` (after); a full ``check`` runs every
 ``full_every`` operations (by default once the operations since the last full
-check outnumber half the entries: O(1) amortized entries visited per
-operation, and a heap that only grows is still checked in full each time it
-grows by half).  Kinds without the hooks get a full check each time.  An operation
+check outnumber the entries the heap held then: O(1) amortized entries visited
+per operation, and a heap that only grows is still checked in full each time
+it doubles).  Kinds without the hooks get a full check each time.  An operation
 that raises from a key's ``<`` is followed by a full check.
 """
 
@@ -49,7 +49,8 @@ class _State:
 
     __slots__ = (
         "base", "busy", "count", "every", "force", "full", "full_every", "history", "labels",
-        "local", "next_label", "record", "replaced", "since_full", "subject", "touched", "ver", "ver_before",
+        "local", "next_label", "record", "replaced", "since_full", "size_at_full", "subject",
+        "touched", "ver", "ver_before",
     )
 
     def __init__(self, replaced: type, every: int, history: int, full_every: int | None) -> None:
@@ -66,6 +67,7 @@ class _State:
         self.next_label = 0
         self.count = 0
         self.since_full = 0
+        self.size_at_full = 0
         self.busy: str | None = None
         self.full = False
         self.force = False
@@ -76,6 +78,7 @@ class _State:
 
     def snapshot(self, heap: Any) -> None:
         """Start a new record from the heap's entries (after a passing full check).  O(n)."""
+        self.size_at_full = heap._n
         label = self.label
         self.base = tuple((x._key, label(x)) for x in heap._handles())
         self.record = []
@@ -236,7 +239,7 @@ def _begin(h: Any, op: str, handle: Any, depth: int = 2) -> _State | None:
     due = st.count % st.every == 0
     fe = st.full_every
     since = st.since_full
-    st.full = st.force or (since >= fe if fe is not None else 2 * since > h._n)
+    st.full = st.force or (since >= fe if fe is not None else since > st.size_at_full)
     st.touched = _NOTHING
     if due and not st.full:
         if not st.local or op == "clear":

@@ -76,7 +76,7 @@ def _at(heap: Any, report: Any, a: Any, d: int, i: int) -> None:
     x = a[i]
     if x._i != i:
         report.fail("index", x, heap._path(i), f"handle says position {x._i}, stands at {i}")
-    if x not in heap:
+    if x._tok is not heap._tok and x not in heap:
         report.fail("ownership", x, heap._path(i), "its owner token is not this heap's")
     xk = x._k
     lo = d * i + 1

@@ -90,27 +90,71 @@ def survey_local(heap: Any, report: Any, nodes: Any, handle: Any) -> None:
     """Check the rules around ``nodes`` (from :func:`touched`) after the operation."""
     root = heap._root
     n = heap._n
+    tok = heap._tok
     if (root is None) != (n == 0):
         report.fail("size", root, [], f"len is {n} but the root is {'missing' if root is None else 'set'}")
     if root is not None:
         if root._prev is not None or root._next is not None:
             report.fail("links", root, ["root"], "the root has a sibling link")
-        if root not in heap:
+        if root._tok is not tok and root not in heap:
             report.fail("ownership", root, ["root"], "its owner token is not this heap's")
-    todo = [x for x in nodes if x is not None]
-    if handle is not None and hasattr(handle, "_child"):
-        todo.append(handle)
+    todo = {id(x): x for x in nodes if x is not None}
+    node_handle = handle is not None and hasattr(handle, "_child")
+    if node_handle:
+        todo[id(handle)] = handle
     if root is not None:
-        todo.append(root)
-    ids = {id(x) for x in todo}
-    done: set[int] = set()
-    for x in todo:
-        if id(x) in done or x._tok is None:  # dead: popped or removed; its neighbours are checked
+        todo[id(root)] = root
+    # The healthy path tests each relation once; the reporting helpers run only
+    # on a failure (checked mode on Dijkstra, n = 1e5: 6.6x -> see the report).
+    for x in todo.values():
+        if x._tok is None:  # dead: popped or removed; its old neighbours are checked
             continue
-        done.add(id(x))
-        _around(heap, report, x, ids)
-    if handle is not None and hasattr(handle, "_child") and handle._tok is not None:
+        xk = x._k
+        if x is not root:
+            p = x._prev
+            if p is None or (p._child is x and xk < p._k) or (p._child is not x and p._next is not x):
+                _report_self(heap, report, x)
+        if x._tok is not tok and x not in heap:
+            report.fail("ownership", x, path_up(heap, x), "its owner token is not this heap's")
+        nx = x._next
+        if nx is not None and nx._prev is not x:
+            report.fail("links", nx, _sibling_path(path_up(heap, x)), "prev does not point back")
+        prev = x
+        c = x._child
+        i = 0
+        while c is not None:
+            if c._prev is not prev or c._k < xk or (c._tok is not tok and c not in heap):
+                _report_child(heap, report, x, c, prev, i)
+            i += 1
+            if id(c) not in todo or i > n:
+                break
+            prev = c
+            c = c._next
+    if node_handle and handle._tok is not None:
         _against_parent(heap, report, handle)
+
+
+def _report_self(heap: Any, report: Any, x: Any) -> None:
+    """Say what is wrong between ``x`` and its ``prev`` node."""
+    p = x._prev
+    if p is None:
+        report.fail("links", x, path_up(heap, x), "a node below the root has no prev link")
+    elif p._child is x:
+        detail = f"key {x._key!r} is smaller than its parent's {p._key!r}"
+        report.fail("heap-order", x, path_up(heap, x), detail)
+    else:
+        report.fail("links", x, path_up(heap, x), "its prev node does not link back to it")
+
+
+def _report_child(heap: Any, report: Any, x: Any, c: Any, prev: Any, i: int) -> None:
+    """Say what is wrong with ``x``'s child number ``i``."""
+    at = [*path_up(heap, x), f"child {i}"]
+    if c._prev is not prev:
+        report.fail("links", c, at, "prev does not point back")
+    if c._k < x._k:
+        report.fail("heap-order", c, at, f"key {c._key!r} is smaller than its parent's {x._key!r}")
+    if c not in heap:
+        report.fail("ownership", c, at, "its owner token is not this heap's")
 
 
 # The handle's key changed, so its order against its parent must be checked even
@@ -128,47 +172,6 @@ def _against_parent(heap: Any, report: Any, x: Any) -> None:
             return
         c = p
         budget -= 1
-
-
-def _around(heap: Any, report: Any, x: Any, ids: set[int]) -> None:
-    if x is not heap._root:
-        p = x._prev
-        if p is None:
-            report.fail("links", x, path_up(heap, x), "a node below the root has no prev link")
-        elif p._child is x:
-            if x._k < p._k:
-                detail = f"key {x._key!r} is smaller than its parent's {p._key!r}"
-                report.fail("heap-order", x, path_up(heap, x), detail)
-        elif p._next is not x:
-            report.fail("links", x, path_up(heap, x), "its prev node does not link back to it")
-    if x not in heap:
-        report.fail("ownership", x, path_up(heap, x), "its owner token is not this heap's")
-    nx = x._next
-    if nx is not None and nx._prev is not x:
-        report.fail("links", nx, _sibling_path(path_up(heap, x)), "prev does not point back")
-    prev = x
-    c = x._child
-    i = 0
-    here: list[str] | None = None
-    while c is not None:
-        broken_link = c._prev is not prev
-        smaller = c._k < x._k
-        foreign = c not in heap
-        if broken_link or smaller or foreign:
-            if here is None:
-                here = path_up(heap, x)
-            at = [*here, f"child {i}"]
-            if broken_link:
-                report.fail("links", c, at, "prev does not point back")
-            if smaller:
-                report.fail("heap-order", c, at, f"key {c._key!r} is smaller than its parent's {x._key!r}")
-            if foreign:
-                report.fail("ownership", c, at, "its owner token is not this heap's")
-        i += 1
-        if id(c) not in ids or i > heap._n:
-            break
-        prev = c
-        c = c._next
 
 
 def _sibling_path(path: list[str]) -> list[str]:
