@@ -261,3 +261,35 @@ def test_heapkit_debug_rejects_unknown_values() -> None:
 def test_without_heapkit_debug_heaps_are_plain() -> None:
     out = _python("import heapkit; print(type(heapkit.PairingHeap()) is heapkit.PairingHeap)", "")
     assert out.stdout.strip() == "True", out.stderr
+
+
+# --- the local checks alone catch a kind's own mistakes ------------------------------
+
+class Lazybones(BinaryHeap[Any, Any]):
+    """A broken binary heap: push appends and never climbs."""
+
+    __slots__ = ()
+
+    def push(self, key: Any, value: Any) -> Any:
+        x = super().push(key, value) if not self._a else None
+        if x is None:
+            x = type(self._a[0])(key, key, value, self._tok)
+            x._i = len(self._a)
+            self._a.append(x)
+            self._n += 1
+            self._ver += 1
+        return x
+
+
+@pytest.mark.parametrize("make", [Lazybones, Careless])
+def test_local_checks_alone_catch_a_broken_operation(make: type) -> None:
+    h = checked(make(), full_every=10**9)
+    for k in (10, 20, 30, 40, 50):
+        h.push(k, k)
+    with pytest.raises(HistoryError) as info:
+        if make is Careless:
+            h.pop()
+            h.decrease_key(next(x for x in h if x.key == 50), 1)
+        else:
+            h.push(1, 1)
+    assert info.value.rules[0] == "heap-order"

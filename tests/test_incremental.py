@@ -22,6 +22,7 @@ import heapkit
 from heapkit import checked
 from heapkit._core import Owner
 from heapkit.errors import InvariantError
+from heapkit.kinds import dary_checks
 from tests.corruption import local_rules
 
 NAMES = ["binary", "dary", "pairing"]
@@ -86,18 +87,7 @@ def _covered(h: Any, touched: Any, subject: Any) -> list[Any]:
         if h._root is not None:
             nodes.append(h._root)
         return [x for x in nodes if x._tok is not None]
-    a, d = h._a, h._d
-    positions, movers = touched
-    starts = [p for p in positions if p < len(a)]
-    extra = [subject] if subject is not None and hasattr(subject, "_i") else []
-    starts += [m._i for m in [*movers, *extra] if m._tok is not None]
-    out: set[int] = set()
-    for i in starts:
-        out.add(i)
-        while i:
-            i = (i - 1) // d
-            out.add(i)
-    return [a[i] for i in sorted(out)]
+    return [h._a[i] for i in dary_checks.stretch(h, touched, subject)]
 
 
 def _corrupt(data: Any, h: Any, x: Any) -> str:
