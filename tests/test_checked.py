@@ -293,3 +293,14 @@ def test_local_checks_alone_catch_a_broken_operation(make: type) -> None:
         else:
             h.push(1, 1)
     assert info.value.rules[0] == "heap-order"
+
+
+def test_copies_and_pickles_of_a_checked_heap_are_plain() -> None:
+    import copy
+    import pickle
+
+    h = checked(PairingHeap([(3, "c"), (1, "a")]))
+    for twin in (copy.copy(h), pickle.loads(pickle.dumps(h))):
+        assert type(twin) is PairingHeap
+        assert [twin.pop() for _ in range(2)] == [(1, "a"), (3, "c")]
+    assert len(h) == 2 and len(_ext(h).history) == 0

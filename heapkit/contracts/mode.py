@@ -106,10 +106,15 @@ def checked(heap: H, *, every: int = 1, history: int = 64, full_every: int | Non
     """Switch ``heap`` to checked mode and return it (the same object).
 
     After every ``every``-th mutating operation the heap verifies what the
-    operation touched (or everything, for kinds without the local hooks) and
-    every ``full_every`` operations all of it; a broken rule raises
-    :class:`HistoryError` (an ``InvariantError``) carrying the last ``history``
-    operations.  Checked mode also guards against re-entry: a key whose ``<``
+    operation touched (or everything, for kinds without the local hooks), and
+    every ``full_every`` operations all of it (None: once the operations since
+    the last full check exceed the heap's size at that check).  A broken rule
+    raises :class:`HistoryError` (an ``InvariantError``) carrying the last
+    ``history`` operations as ``.history`` and ``.replay(kind)``, which runs
+    the operations since the last passing full check on a fresh heap of any
+    kind (a name, a class or a factory), ready to paste into a test.  Copies
+    and pickles of a checked heap are plain heaps.
+    Checked mode also guards against re-entry: a key whose ``<``
     pushes to or pops from the heap it is being compared in gets
     ``RuntimeError``.  (The plain heap has no such guard: it measured about
     23 ns per operation, over the 2% budget of the fast path.)  Calling it on a
