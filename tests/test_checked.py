@@ -304,3 +304,23 @@ def test_copies_and_pickles_of_a_checked_heap_are_plain() -> None:
         assert type(twin) is PairingHeap
         assert [twin.pop() for _ in range(2)] == [(1, "a"), (3, "c")]
     assert len(h) == 2 and len(_ext(h).history) == 0
+
+
+class NoHooks(PairingHeap[Any, Any]):
+    """A kind without the local hooks: checked mode must survey it in full."""
+
+    __slots__ = ()
+    _touched = None  # type: ignore[assignment]
+    surveys = 0
+
+    def _survey(self, report: Any) -> dict[str, Any]:
+        NoHooks.surveys += 1
+        return super()._survey(report)
+
+
+def test_kinds_without_local_hooks_get_a_full_check_after_each_due_operation() -> None:
+    h = checked(NoHooks(), every=2, full_every=10**9)
+    NoHooks.surveys = 0
+    for k in range(6):
+        h.push(k, k)
+    assert NoHooks.surveys == 3                  # operations 2, 4 and 6

@@ -38,7 +38,7 @@ from heapkit._core import (
     nan_error,
     upward_error,
 )
-from heapkit.kinds import dary_checks
+from heapkit.kinds import dary_checks as _dc
 from heapkit.protocol import Handle
 
 __all__ = ["BinaryHeap", "DaryHeap"]
@@ -375,10 +375,8 @@ class DaryHeap(HeapBase[K, V], Generic[K, V]):
         """Does meld push ``m`` entries one by one into ``n`` (else heapify all)?"""
         return m * max(1, n.bit_length()) < n + m
 
-    # Checked mode and to_dot (see dary_checks.py and the SPI in _core.py).
-    _touched = dary_checks.touched
-    _survey_local = dary_checks.survey_local
-    _dot_edges = dary_checks.dot_edges
+    # Checked mode and to_dot hooks (see dary_checks.py and the SPI in _core.py).
+    _touched, _survey_local, _dot_edges = _dc.touched, _dc.survey_local, _dc.dot_edges
 
     # Precondition: x was the last entry pushed and nothing moved since.
     # Restores: the array as it was before that push.  No comparison.

@@ -34,7 +34,7 @@ from heapkit._core import (
     nan_error,
     upward_error,
 )
-from heapkit.kinds import pairing_checks
+from heapkit.kinds import pairing_checks as _pc
 from heapkit.protocol import Handle
 
 __all__ = ["PairingHeap"]
@@ -410,10 +410,8 @@ class PairingHeap(HeapBase[K, V], Generic[K, V]):
             if n:
                 stack.append([x, n, None])
 
-    # Checked mode and to_dot (see pairing_checks.py and the SPI in _core.py).
-    _touched = pairing_checks.touched
-    _survey_local = pairing_checks.survey_local
-    _dot_edges = pairing_checks.dot_edges
+    # Checked mode and to_dot hooks (see pairing_checks.py and the SPI in _core.py).
+    _touched, _survey_local, _dot_edges = _pc.touched, _pc.survey_local, _pc.dot_edges
 
     def _map_order(self, fn: Callable[[Any, Any], Any]) -> None:
         for x in self._handles():
