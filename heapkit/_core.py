@@ -28,13 +28,14 @@ A kind subclasses :class:`HeapBase` and keeps, in its own module, beside its cod
     with handle None, ``pop`` None, ``decrease_key``/``change_key``/``remove``
     with a handle live in this heap, ``meld`` with the other heap, which is
     also how ``extend`` ends); cheap, at most O(the op's own work).  Returns
-    what the op may change (nodes, positions), or None for "check it all";
+    what the op may change (nodes, positions), handed back as ``touched``;
   - ``_survey_local(report, touched, handle)``: called just after the op
     (``handle``: the handle pushed/changed/removed, the other heap for meld,
     None for pop).  Checks the kind's rules around ``touched`` (parent/child
     order, link symmetry, ownership, marks/ranks where local) and the
-    root/min pointer, reporting like ``_survey``.  Every corruption it can
-    miss, the next full ``_survey`` must find;
+    root/min pointer, reporting like ``_survey`` (it may run ``_survey`` itself
+    when the op changed everything).  Every corruption it can miss, the next
+    full ``_survey`` must find;
 
 * optional, for ``heapkit.to_dot``: ``_dot_edges()`` yielding ``(parent or
   None, node, extra label)`` for every entry, a parent before its children,

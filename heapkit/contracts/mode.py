@@ -299,8 +299,6 @@ def _verify(h: Any, st: _State, subject: Any, also: Any) -> None:
         report.run(h._survey)
         if not report.problems:
             st.snapshot(h)
-    elif touched is None:
-        report.run(h._survey)
     elif touched is not _NOTHING and touched is not _PENDING:
         report.run(h._survey_local, touched, subject)
     if also is not None and not report.problems:
@@ -474,5 +472,5 @@ def _inner_meld(h: Any, other: Any) -> None:
     report.run(other._survey)
     if report.problems:
         raise _failure(h, st, report)
-    st.touched = h._touched("meld", other) if _valid(h, "meld", other) else None
+    st.touched = h._touched("meld", other) if _valid(h, "meld", other) else _NOTHING
     st.subject = other

@@ -26,7 +26,7 @@ __all__ = ["dot_edges", "stretch", "survey_local", "touched"]
 def touched(heap: Any, op: str, handle: Any) -> Any:
     """``(positions, movers, to_root)``: the stretch to re-check runs between
     these positions and wherever these entries stand afterwards (up to the
-    root if ``to_root``).  None: check everything."""
+    root if ``to_root``).  None: the op may move anything; survey it all."""
     a = heap._a
     if op == "push":
         return [len(a)], [], False
@@ -80,6 +80,9 @@ def survey_local(heap: Any, report: Any, spots: Any, handle: Any) -> None:
     a = heap._a
     d = heap._d
     n = len(a)
+    if spots is None:
+        heap._survey(report)
+        return
     if n != heap._n:
         report.fail("size", None, [], f"the array holds {n} entries but len is {heap._n}")
     for i in stretch(heap, spots, handle, report):

@@ -39,7 +39,7 @@ def _children(x: Any) -> list[Any]:
 
 
 def touched(heap: Any, op: str, handle: Any) -> Any:
-    """The nodes whose neighbourhood ``op`` may change (None: check everything)."""
+    """The nodes whose neighbourhood ``op`` may change (None: survey it all)."""
     root = heap._root
     if op == "push":
         return [root]
@@ -88,6 +88,9 @@ def path_up(heap: Any, x: Any) -> list[str]:
 
 def survey_local(heap: Any, report: Any, nodes: Any, handle: Any) -> None:
     """Check the rules around ``nodes`` (from :func:`touched`) after the operation."""
+    if nodes is None:
+        heap._survey(report)
+        return
     root = heap._root
     n = heap._n
     tok = heap._tok
