@@ -9,8 +9,19 @@ from heapkit.errors import (
     InvariantError,
     KeyOrderError,
 )
-from heapkit.kinds import DEFAULT, KINDS, BinaryHeap, DaryHeap, PairingHeap, new
+from heapkit.kinds import (
+    DEFAULT,
+    KINDS,
+    BinaryHeap,
+    DaryHeap,
+    FibonacciHeap,
+    LazyHeap,
+    PairingHeap,
+    RankPairingHeap,
+    new,
+)
 from heapkit.protocol import Handle, Heap, Shape
+from heapkit.threads import Locked, locked
 
 __all__ = [
     "DEFAULT",
@@ -19,16 +30,21 @@ __all__ = [
     "BoundExceededError",
     "DaryHeap",
     "EmptyHeapError",
+    "FibonacciHeap",
     "Handle",
     "Heap",
     "HeapError",
     "InvalidHandleError",
     "InvariantError",
     "KeyOrderError",
+    "LazyHeap",
+    "Locked",
     "PairingHeap",
+    "RankPairingHeap",
     "Shape",
     "check",
     "checked",
+    "locked",
     "new",
     "to_dot",
     "unchecked",

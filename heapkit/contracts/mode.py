@@ -80,7 +80,7 @@ class _State:
         """Start a new record from the heap's entries (after a passing full check).  O(n)."""
         self.size_at_full = heap._n
         label = self.label
-        self.base = tuple((x._key, label(x)) for x in heap._handles())
+        self.base = tuple((x.key, label(x)) for x in heap._handles())
         self.record = []
 
     def label(self, h: Any) -> int:
