@@ -116,8 +116,8 @@ def checked(heap: H, *, every: int = 1, history: int = 64, full_every: int | Non
     and pickles of a checked heap are plain heaps.
     Checked mode also guards against re-entry: a key whose ``<``
     pushes to or pops from the heap it is being compared in gets
-    ``RuntimeError``.  (The plain heap has no such guard: it measured about
-    23 ns per operation, over the 2% budget of the fast path.)  Calling it on a
+    ``RuntimeError``.  (The plain heap has no such guard: one was measured at
+    about 23 ns per operation, over the fast path's 2% budget.)  Calling it on a
     checked heap updates the settings.  O(n) once, for the first full check.
 
     >>> from heapkit import PairingHeap, unchecked
