@@ -324,3 +324,14 @@ def test_kinds_without_local_hooks_get_a_full_check_after_each_due_operation() -
     for k in range(6):
         h.push(k, k)
     assert NoHooks.surveys == 3                  # operations 2, 4 and 6
+
+
+def test_a_mutated_key_that_the_next_pop_tidies_away_is_still_caught() -> None:
+    h = checked(PairingHeap(), full_every=1)
+    for k in ([3], [1], [4]):
+        h.push(k, str(k))
+    k = [5]
+    h.push(k, "five")
+    k[0] = 0                                     # now the smallest, but not at the root
+    with pytest.raises(HistoryError, match=r"'minimum' broken at the heap entry \(\[0\], 'five'\)"):
+        h.pop()                                  # returns [1]; the pairing puts [0] on top

@@ -48,7 +48,7 @@ class _State:
     """Checked mode's per-heap state, kept in ``heap._ext["checked"]``."""
 
     __slots__ = (
-        "base", "busy", "count", "every", "force", "full", "full_every", "history", "labels",
+        "base", "busy", "count", "due", "every", "force", "full", "full_every", "history", "labels",
         "local", "next_label", "record", "replaced", "since_full", "size_at_full", "subject",
         "touched", "ver", "ver_before",
     )
@@ -68,6 +68,7 @@ class _State:
         self.count = 0
         self.since_full = 0
         self.size_at_full = 0
+        self.due = False
         self.busy: str | None = None
         self.full = False
         self.force = False
@@ -241,7 +242,7 @@ def _begin(h: Any, op: str, handle: Any, depth: int = 2) -> _State | None:
         _outside(h, st)
     st.count += 1
     st.since_full += 1
-    due = st.count % st.every == 0
+    st.due = due = st.count % st.every == 0
     fe = st.full_every
     since = st.since_full
     st.full = st.force or (since >= fe if fe is not None else since > st.size_at_full)
@@ -275,24 +276,28 @@ def _outside(h: Any, st: _State) -> None:
     st.full = True
 
 
-def _end(h: Any, st: _State, subject: Any, entry: Entry, also: Any = None) -> None:
+def _end(h: Any, st: _State, subject: Any, entry: Entry, also: Any = None, popped: Any = _NOTHING) -> None:
     """Finish a wrapped operation: record it, then verify what is due.
 
     The guard stays up while the checks compare keys: a meddling key must not
     change the heap under the survey either.
     """
-    st.ver = h._ver
     st.history.append(entry)
     st.record.append(entry)
     try:
-        _verify(h, st, subject, also)
+        _verify(h, st, subject, also, popped)
     finally:
         st.busy = None
+        st.ver = h._ver
 
 
-def _verify(h: Any, st: _State, subject: Any, also: Any) -> None:
+def _verify(h: Any, st: _State, subject: Any, also: Any, popped: Any) -> None:
     report = Report()
     touched, st.touched = st.touched, _NOTHING
+    if popped is not _NOTHING and st.due and h._n:
+        # One comparison: what pop returned is no larger than what is left on top.
+        # It catches a key mutated in place that the pop itself tidied away.
+        report.run(_popped_minimum, h, popped)
     if st.full:
         st.since_full = 0
         st.force = False
@@ -305,6 +310,12 @@ def _verify(h: Any, st: _State, subject: Any, also: Any) -> None:
         report.run(also._survey)
     if report.problems:
         raise _failure(h, st, report)
+
+
+def _popped_minimum(report: Report, h: Any, popped: Any) -> None:
+    top = h.peek()
+    if top.key < popped:
+        report.fail("minimum", top, [], f"pop returned key {popped!r}, yet this smaller entry stays")
 
 
 def _abort(h: Any, st: _State, exc: BaseException) -> None:
@@ -375,7 +386,7 @@ class _Checking:
         if top is not None and not top.alive:
             lab = st.label(top)
             st.labels.pop(id(top), None)
-        _end(self, st, None, ("pop", lab, kv[0]))
+        _end(self, st, None, ("pop", lab, kv[0]), popped=kv[0])
         return kv
 
     def decrease_key(self, handle: Any, key: Any) -> None:
