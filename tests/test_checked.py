@@ -73,7 +73,7 @@ def test_replay_reaches_the_same_failure() -> None:
 def test_replay_on_a_sound_kind_runs_clean() -> None:
     h, err = _break_careless()
     for kind in ("pairing", "binary", DaryHeap):
-        good = err.replay(kind)
+        good = err.replay(kind=kind)
         assert len(good) == len(h)
         out = [good.pop()[0] for _ in range(len(good))]
         assert out == sorted(out)                # sorted(): the order a heap must give

@@ -134,6 +134,7 @@ class HistoryError(InvariantError):
     last passing full check and every operation since.  ``replay(target=None)``
     runs that record again on a fresh heap (by default of the same class and
     options) and raises the failure again: hand it to a test.
+    ``replay(kind="pairing")`` runs it on another kind.
 
     >>> from heapkit import BinaryHeap, checked
     >>> class Sloppy(BinaryHeap):          # decrease_key forgets to sift up
@@ -166,9 +167,10 @@ class HistoryError(InvariantError):
         self.record: list[Entry] = history if record is None else record
         self._factory = factory
 
-    def replay(self, target: Target | None = None) -> Any:
-        """Run the history again on a fresh heap (``target`` as in :func:`replay`).
+    def replay(self, kind: Target | None = None) -> Any:
+        """Run the record again on a fresh heap of ``kind`` (a ``KINDS`` name, a
+        class or a factory; None: the failing heap's class and options).
 
-        Returns the heap if no rule breaks.  O(length of history * n).
+        Returns the heap if no rule breaks.  O(length of the record * n).
         """
-        return replay(self.record, self._factory if target is None else target, start=self.start)
+        return replay(self.record, self._factory if kind is None else kind, start=self.start)
