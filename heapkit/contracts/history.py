@@ -131,7 +131,7 @@ class HistoryError(InvariantError):
 
     ``history``: the last operations (see :mod:`heapkit.contracts.history`),
     the failing one last; ``start`` and ``record``: the heap's entries at its
-    last passing full check and every operation since.  ``replay(target=None)``
+    last passing full check and every operation since.  ``replay()``
     runs that record again on a fresh heap (by default of the same class and
     options) and raises the failure again: hand it to a test.
     ``replay(kind="pairing")`` runs it on another kind.
