@@ -1,6 +1,6 @@
 """heapkit: addressable priority queues with handles, contracts and an auditor."""
 
-from heapkit.contracts import check
+from heapkit.contracts import check, checked, to_dot, unchecked
 from heapkit.errors import (
     BoundExceededError,
     EmptyHeapError,
@@ -44,8 +44,11 @@ __all__ = [
     "RankPairingHeap",
     "Shape",
     "check",
+    "checked",
     "locked",
     "new",
+    "to_dot",
+    "unchecked",
 ]
 
 __version__ = "0.1.0"

@@ -34,6 +34,7 @@ from heapkit._core import (
     nan_error,
     upward_error,
 )
+from heapkit.kinds import pairing_checks as _pc
 from heapkit.protocol import Handle
 
 __all__ = ["PairingHeap"]
@@ -409,6 +410,9 @@ class PairingHeap(HeapBase[K, V], Generic[K, V]):
             if n:
                 stack.append([x, n, None])
 
+    # Checked mode and to_dot hooks (see pairing_checks.py and the SPI in _core.py).
+    _touched, _survey_local, _dot_edges = _pc.touched, _pc.survey_local, _pc.dot_edges
+
     def _map_order(self, fn: Callable[[Any, Any], Any]) -> None:
         for x in self._handles():
             x._k = fn(x._k, x._key)
@@ -454,7 +458,7 @@ class PairingHeap(HeapBase[K, V], Generic[K, V]):
                 c = c._next
             max_degree = max(max_degree, degree)
         if count != self._n:
-            report.fail("size", root, [], f"{count} nodes reachable but len is {self._n}")
+            report.fail("size", None, [], f"{count} nodes reachable but len is {self._n}")
         return {
             "size": count,
             "roots": 0 if root is None else 1,
