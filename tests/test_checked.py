@@ -16,6 +16,7 @@ import heapkit
 from heapkit import BinaryHeap, DaryHeap, PairingHeap, checked, unchecked
 from heapkit.contracts import HistoryError
 from heapkit.errors import InvariantError
+from tests.kinds import NAMES, make, monotone
 
 ROOT = Path(__file__).resolve().parent.parent
 
@@ -163,19 +164,19 @@ class Meddler:
         return f"M{self.k}"
 
 
-@pytest.mark.parametrize("cls", [PairingHeap, BinaryHeap, DaryHeap])
-def test_a_key_pushing_mid_push_gets_runtime_error(cls: type) -> None:
-    h = checked(cls([(Meddler(5), "a"), (Meddler(7), "b")]))
+@pytest.mark.parametrize("name", [n for n in NAMES if not monotone(n)])
+def test_a_key_pushing_mid_push_gets_runtime_error(name: str) -> None:
+    h = checked(make(name, pairs=[(Meddler(5), "a"), (Meddler(7), "b")]))
     with pytest.raises(RuntimeError, match="in the middle of push"):
         h.push(Meddler(1, lambda: h.push(Meddler(0), "x")), "new")
     assert sorted(x.key.k for x in h) == [5, 7]
     heapkit.check(h)
 
 
-@pytest.mark.parametrize("cls", [PairingHeap, BinaryHeap, DaryHeap])
-def test_a_key_popping_mid_pop_gets_runtime_error(cls: type) -> None:
+@pytest.mark.parametrize("name", [n for n in NAMES if not monotone(n)])
+def test_a_key_popping_mid_pop_gets_runtime_error(name: str) -> None:
     keys = [Meddler(k) for k in (3, 1, 4, 5, 9, 2, 6)]
-    h = checked(cls([(k, k.k) for k in keys]))
+    h = checked(make(name, pairs=[(k, k.k) for k in keys]))
     for k in keys:
         k.action = h.pop
     with pytest.raises(RuntimeError, match="in the middle of pop"):
