@@ -77,11 +77,11 @@ DRAWN = [name for name in sorted(heapkit.KINDS) if hasattr(heapkit.KINDS[name], 
 ARRAYS = {"binary", "dary", "lazy"}             # implicit trees: the drawing is the list, slot by slot
 
 
-def _worked(name: str, seed: int = 7) -> tuple[Any, list[int]]:
+def _worked(name: str, seed: int = 7, stable: bool = False) -> tuple[Any, list[int]]:
     """A heap of kind ``name`` after a seeded mix of every operation, and its keys
     as a plain list kept beside it (the model the drawing is checked against)."""
     rng = random.Random(seed)
-    h = heapkit.KINDS[name]()
+    h = heapkit.KINDS[name](stable=stable)
     live: list[Any] = []
     model: list[int] = []
     for k in rng.sample(range(1000), 80):
@@ -106,9 +106,10 @@ def _key(label: str) -> int:
     return int(label.split("\\n")[0])
 
 
+@pytest.mark.parametrize("stable", [False, True])
 @pytest.mark.parametrize("name", DRAWN)
-def test_every_entry_is_drawn_once_with_its_parent_first(name: str) -> None:
-    h, model = _worked(name)
+def test_every_entry_is_drawn_once_with_its_parent_first(name: str, stable: bool) -> None:
+    h, model = _worked(name, stable=stable)
     text = to_dot(h, limit=10_000)
     labels, edges = _parse(text)
     assert text.startswith("digraph heap {") and text.endswith("}") and "truncated" not in text
@@ -216,3 +217,11 @@ def test_a_structure_deeper_than_the_recursion_limit(name: str) -> None:
     assert len(labels) == len(h) and len(edges) == len(h) - shape.roots
     few, few_edges = _parse(to_dot(h, limit=5))
     assert len(few) == 5 and len(few_edges) == 4                # a chain: each node under the last
+
+
+@pytest.mark.parametrize("name", DRAWN)
+def test_checked_mode_draws_the_same_shape(name: str) -> None:
+    h, _model = _worked(name, stable=True)
+    body = to_dot(h).splitlines()[2:]
+    heapkit.checked(h)                          # switches the class, keeps the structure
+    assert to_dot(h).splitlines()[2:] == body
