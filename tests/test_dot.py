@@ -153,13 +153,15 @@ def test_labels_agree_with_check(name: str) -> None:
         assert max(out.values()) <= 2                            # the binary view
         # Half-trees: a root has no right child.
         assert not any(extras[p].endswith(", root") and extras[c].endswith(", right") for p, c in edges)
-    else:                                                         # array heaps: "[i]" is the slot
+    elif name in ARRAYS:                                          # array heaps: "[i]" is the slot
         assert [int(re.match(r"\[(\d+)\]", e).group(1)) for e in extras.values()] == list(range(len(labels)))  # type: ignore[union-attr]
         assert max(out.values()) <= (h._d if name == "dary" else 2)
         if name == "lazy":
             stale = sum(e.endswith(", stale") for e in extras.values())
             assert stale == shape.details["stale"] and stale > 0
             assert len(labels) == shape.details["entries"]
+    else:
+        pytest.skip(f"no label facts for {name} yet: add its extra label's meaning here")
 
 
 @pytest.mark.parametrize("name", DRAWN)
