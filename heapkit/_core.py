@@ -39,7 +39,10 @@ A kind subclasses :class:`HeapBase` and keeps, in its own module, beside its cod
 
 * optional, for ``heapkit.to_dot``: ``_dot_edges()`` yielding ``(parent or
   None, node, extra label)`` for every entry, a parent before its children,
-  iteratively (``extra``: e.g. ``"degree 3"``, ``"rank 2, marked"``);
+  lazily and iteratively (``extra``: e.g. ``"degree 3"``, ``"rank 2, marked"``;
+  ``node`` has ``.key``).  A kind that draws nodes beyond its entries (the
+  lazy heap's stale slots) returns an iterator whose ``__length_hint__`` is
+  the total;
 * modes (checked, audit) switch ``heap.__class__`` to a cached subclass
   marked by a class attribute ``_layer = "<mode>"`` and keep per-heap state in
   ``heap._ext[<mode>]`` (``_ext`` is None or a dict); each restores exactly

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import operator
 from collections.abc import Iterable
 from typing import Any
 
@@ -28,9 +29,11 @@ def to_dot(heap: Any, *, limit: int = 200) -> str:
 
     Kinds with the ``_dot_edges`` hook draw their trees (degree, marks or rank
     in the label where the kind has them); other queues are drawn as loose
-    entries.  At most ``limit`` entries are drawn; a note in the graph says
-    when it is cut short.  Iterative; O(limit) plus what the kind spends
-    reaching that many entries.
+    entries.  A kind may draw more nodes than it has entries (the lazy heap's
+    stale slots); its hook then says how many through ``__length_hint__``.
+    At most ``limit`` nodes are drawn; a note in the graph says when it is
+    cut short.  Iterative; O(limit) plus what the kind spends reaching that
+    many nodes.
 
     >>> from heapkit import PairingHeap
     >>> print(to_dot(PairingHeap([(2, 'b'), (1, 'a')])))
@@ -51,14 +54,18 @@ def to_dot(heap: Any, *, limit: int = 200) -> str:
         source = hook()
     else:
         source = ((None, h, "") for h in heap)
-    title = f"{type(heap).__name__}, {total} entries"
+    nodes = operator.length_hint(source, total)
+    what = "entries" if nodes == total else "nodes"
+    title = f"{type(heap).__name__}, {total} entries" + ("" if nodes == total else f", {nodes} nodes")
     if not callable(hook):
         title += " (no tree drawn for this queue)"
     lines = ["digraph heap {", f"  label={_quote(title)};", "  node [shape=box];"]
     names: dict[int, str] = {}
     shown = 0
+    cut = False
     for parent, node, extra in source:
         if shown == limit:
+            cut = True
             break
         name = f"n{shown}"
         names[id(node)] = name
@@ -67,8 +74,8 @@ def to_dot(heap: Any, *, limit: int = 200) -> str:
         lines.append(f"  {name} [label={_quote(label)}];")
         if parent is not None and id(parent) in names:
             lines.append(f"  {names[id(parent)]} -> {name};")
-    if shown < total:
-        note = f"truncated: {shown} of {total} entries drawn (limit {limit})"
+    if cut:
+        note = f"truncated: {shown} of {nodes} {what} drawn (limit {limit})"
         lines.append(f"  // {note}")
         lines.append(f"  truncated [shape=note, label={_quote(note)}];")
     lines.append("}")

@@ -341,3 +341,21 @@ def survey_local(heap: Any, report: Any, nodes: list[Any], handle: Any) -> None:
                     break
         if count != x._degree:
             report.fail("links", x, _local_path(x, n), f"degree {x._degree} but {count}+ children")
+
+
+def dot_edges(heap: Any) -> Iterator[tuple[Any, Any, str]]:
+    """``(parent or None, node, "degree d[, marked]")`` in preorder, the min's
+    ring first.  Lazy, O(1) per node: the stack holds one ring position per
+    level (no child ring is gathered), so ``to_dot``'s limit bounds the work.
+    The degree is the one the node keeps; the drawn edges show its children."""
+    m = heap._min
+    stack: list[tuple[Any, Any, Any]] = [] if m is None else [(None, m, m)]  # (parent, node, ring entry)
+    while stack:
+        parent, x, start = stack.pop()
+        yield parent, x, f"degree {x._degree}, marked" if x._mark else f"degree {x._degree}"
+        nxt = x._right
+        if nxt is not start:
+            stack.append((parent, nxt, start))
+        c = x._child
+        if c is not None:
+            stack.append((x, c, c))

@@ -11,7 +11,8 @@ from collections.abc import Iterator
 from typing import Any
 
 __all__ = [
-    "export_trees", "import_trees", "nodes_of", "roots_of", "survey", "survey_local", "tally", "type2_rank",
+    "dot_edges", "export_trees", "import_trees", "nodes_of", "roots_of", "survey", "survey_local", "tally",
+    "type2_rank",
 ]
 
 
@@ -279,3 +280,26 @@ def tally(roots: list[Any]) -> tuple[int, int, int]:
             if right is not None:
                 stack.append(right)
     return rs, len(roots), zs
+
+
+def dot_edges(heap: Any) -> Iterator[tuple[Any, Any, str]]:
+    """The half-trees' binary edges, root by root from the first, each in
+    preorder: ``(parent or None, node, "rank r, root" | "rank r, left" |
+    "rank r, right")``.  Only a left edge is heap-ordered; a right child is a
+    sibling in the multiway view.  Lazy, O(1) per node (the root list is walked,
+    not gathered), so ``to_dot``'s limit bounds the work."""
+    first = heap._first
+    root = first
+    while root is not None:
+        yield None, root, f"rank {root._rank}, root"
+        stack: list[tuple[Any, Any, str]] = [] if root._left is None else [(root, root._left, "left")]
+        while stack:
+            parent, x, side = stack.pop()
+            yield parent, x, f"rank {x._rank}, {side}"
+            if x._right is not None:
+                stack.append((x, x._right, "right"))
+            if x._left is not None:
+                stack.append((x, x._left, "left"))
+        root = root._next
+        if root is first:
+            break

@@ -8,6 +8,7 @@ Every walk is a loop with an explicit stack.
 
 from __future__ import annotations
 
+from collections.abc import Iterator
 from typing import Any, ClassVar
 
 from heapkit._core import HandleBase
@@ -217,6 +218,20 @@ class BinomialRules:
             report.fail("links", x, self._path_of(x), "its right sibling's prev does not point back")
         if c is not None and c._prev is not x:
             report.fail("links", x, self._path_of(x), "its leftmost child's prev does not point back")
+
+    # --- to_dot ------------------------------------------------------------------
+    def _dot_edges(self) -> Iterator[tuple[Any, Any, str]]:
+        """``(parent or None, node, "degree d")``: each tree in preorder, roots
+        by increasing degree.  Lazy, O(1) per node (a stack of sibling
+        positions), so ``to_dot``'s limit bounds the work."""
+        stack: list[tuple[Any, Any]] = [(None, r) for r in reversed(self._roots) if r is not None]
+        while stack:
+            parent, x = stack.pop()
+            yield parent, x, f"degree {x._deg}"
+            if parent is not None and x._next is not None:
+                stack.append((parent, x._next))
+            if x._child is not None:
+                stack.append((x, x._child))
 
     # --- audit -------------------------------------------------------------------
     def _phi(self) -> float:

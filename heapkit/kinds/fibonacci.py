@@ -458,11 +458,8 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
     def _survey(self, report: Any) -> dict[str, Any]:
         return _rules.survey(self, report)
 
-    def _touched(self, op: str, handle: Any) -> Any:
-        return _rules.touched(self, op, handle)
-
-    def _survey_local(self, report: Any, touched: Any, handle: Any) -> None:
-        _rules.survey_local(self, report, touched, handle)
+    # Checked mode and to_dot hooks (see _fibonacci_shape.py and the SPI in _core.py).
+    _touched, _survey_local, _dot_edges = _rules.touched, _rules.survey_local, _rules.dot_edges
 
     # --- audit -------------------------------------------------------------
     def _phi(self) -> float:

@@ -72,6 +72,7 @@ from heapkit.kinds._lazy_entries import (
     _unpop,
     _unpush,
     _user_key,
+    dot_edges,
     flatten,
     rebuild,
 )
@@ -482,6 +483,8 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
 
     def _touched(self, op: str, handle: Any) -> Any:
         return None
+
+    _dot_edges = dot_edges  # to_dot hook: every slot, stale ones too (see _lazy_entries.py)
 
     def _survey_local(self, report: Any, touched: Any, handle: Any) -> None:
         a = self._a

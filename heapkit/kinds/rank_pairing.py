@@ -63,6 +63,7 @@ from typing import Any, ClassVar, Generic, TypeVar
 from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, upward_error
 from heapkit.kinds._rank_pairing_cuts import cut, enlist, ring, spill, unspine
 from heapkit.kinds._rank_pairing_rules import (
+    dot_edges,
     export_trees,
     import_trees,
     nodes_of,
@@ -460,6 +461,8 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
 
     def _survey_local(self, report: Any, touched: Any, handle: Any) -> None:
         survey_local(self, report, touched)
+
+    _dot_edges = dot_edges  # to_dot hook (see _rank_pairing_rules.py and the SPI in _core.py)
 
     # --- audit -------------------------------------------------------------
     def _phi(self) -> float:
