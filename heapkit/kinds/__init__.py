@@ -7,14 +7,16 @@ from types import MappingProxyType
 
 from heapkit.kinds.dary import BinaryHeap, DaryHeap
 from heapkit.kinds.pairing import PairingHeap
+from heapkit.kinds.radix import RadixHeap
 
-__all__ = ["DEFAULT", "KINDS", "BinaryHeap", "DaryHeap", "PairingHeap", "new"]
+__all__ = ["DEFAULT", "KINDS", "BinaryHeap", "DaryHeap", "PairingHeap", "RadixHeap", "new"]
 
 KINDS: Mapping[str, type] = MappingProxyType(
     {
         BinaryHeap.KIND: BinaryHeap,
         DaryHeap.KIND: DaryHeap,
         PairingHeap.KIND: PairingHeap,
+        RadixHeap.KIND: RadixHeap,
     }
 )
 
