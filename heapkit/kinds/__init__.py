@@ -6,15 +6,17 @@ from collections.abc import Mapping
 from types import MappingProxyType
 
 from heapkit.kinds.dary import BinaryHeap, DaryHeap
+from heapkit.kinds.hollow import HollowHeap
 from heapkit.kinds.pairing import PairingHeap
 from heapkit.kinds.radix import RadixHeap
 
-__all__ = ["DEFAULT", "KINDS", "BinaryHeap", "DaryHeap", "PairingHeap", "RadixHeap", "new"]
+__all__ = ["DEFAULT", "KINDS", "BinaryHeap", "DaryHeap", "HollowHeap", "PairingHeap", "RadixHeap", "new"]
 
 KINDS: Mapping[str, type] = MappingProxyType(
     {
         BinaryHeap.KIND: BinaryHeap,
         DaryHeap.KIND: DaryHeap,
+        HollowHeap.KIND: HollowHeap,
         PairingHeap.KIND: PairingHeap,
         RadixHeap.KIND: RadixHeap,
     }
