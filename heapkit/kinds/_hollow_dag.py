@@ -175,28 +175,28 @@ def _path(v: Any, found: dict[int, tuple[Any, int]]) -> list[str]:
     return steps
 
 
-def _check_node(heap: Any, report: Any, v: Any, where: list[str]) -> None:
-    """The rules that hold at one node: its own rank list and its handle."""
+def _check_node(heap: Any, report: Any, v: Any, at: Any) -> None:
+    """The rules that hold at one node: its own rank list and its handle (``at()``: its path)."""
     e: Any = v.item
     want = v.rank - 1
     count = 0
     c = v.rk
     while c is not None and count <= v.rank:
         if c.rank != want:
-            report.fail("rank", e, where, f"ranked child {count} has rank {c.rank}, expected {want}")
+            report.fail("rank", e, at(), f"ranked child {count} has rank {c.rank}, expected {want}")
             break
         want -= 1
         count += 1
         c = c.nx
     if count > v.rank or (e is not None and count != v.rank):
-        report.fail("rank", e, where, f"rank {v.rank} but {count} ranked children")
+        report.fail("rank", e, at(), f"rank {v.rank} but {count} ranked children")
     if e is not None:
         if e._key is not v.key or e._k is not v.k or e._node is not v:
-            report.fail("handle", e, where, "the handle and its node disagree")
+            report.fail("handle", e, at(), "the handle and its node disagree")
         if e not in heap:
-            report.fail("ownership", e, where, "its owner token is not this heap's")
+            report.fail("ownership", e, at(), "its owner token is not this heap's")
         if v.ep is not None:
-            report.fail("second-parent", e, where, "a full node has a second parent")
+            report.fail("second-parent", e, at(), "a full node has a second parent")
 
 
 def _check_root(heap: Any, report: Any, root: Any) -> None:
@@ -220,24 +220,26 @@ def survey(heap: Any, report: Any) -> dict[str, Any]:
     while stack:
         v, depth = stack.pop()
         height = max(height, depth)
-        where = _path(v, found)
+        def at(v: Any = v) -> list[str]:
+            return _path(v, found)
+
         if v.item is None:
             hollow += 1
         else:
             full += 1
             fulls.append(v)
         if full + hollow > cap:
-            report.fail("size", v.item, where, f"more than {cap} nodes reachable")
+            report.fail("size", v.item, at(), f"more than {cap} nodes reachable")
             break
-        _check_node(heap, report, v, where)
+        _check_node(heap, report, v, at)
         degree = 0
         for c, _ranked in children(v):
             if degree > cap:
-                report.fail("size", v.item, where, "a child list does not end")
+                report.fail("size", v.item, at(), "a child list does not end")
                 break
             if c.k < v.k:
                 report.fail(
-                    "heap-order", c.item, [*where, f"child {degree}"],
+                    "heap-order", c.item, [*at(), f"child {degree}"],
                     f"key {c.key!r} is smaller than its parent's {v.key!r}",
                 )
             parents[id(c)] = parents.get(id(c), 0) + 1
@@ -283,7 +285,7 @@ def survey_local(heap: Any, report: Any, nodes: list[Any]) -> None:
         if v is None or v.item is None or v.item._node is not v:
             continue
         where = ["root"] if v is root else ["…"]
-        _check_node(heap, report, v, where)
+        _check_node(heap, report, v, lambda where=where: where)
         for c, _ in children(v):
             if c.k < v.k:
                 report.fail(
