@@ -31,7 +31,10 @@ entries examined + buckets skipped + 1.  Push: actual 1, Phi grows by at most
 Pop from bucket ``j`` of size ``s``: actual 1 + j + s; the popped entry takes
 ``j`` away and each of the other ``s - 1`` drops a bucket or more, so
 amortized <= 2 (plus t when stable).  decrease_key never raises ``b``
-(amortized 1); change_key and remove: at most 1 + D.
+(amortized 1); change_key: at most 1 + D; remove: 1.  (This potential puts the
+log C on push; every entry is charged it once, which is the O(n log C) of
+Dijkstra.  No potential can make push O(1) and pop O(log C) amortized at once
+for workloads that pop little: k pops can move each of n entries k times.)
 
 Source: R. K. Ahuja, K. Mehlhorn, J. B. Orlin, R. E. Tarjan, "Faster
 algorithms for the shortest path problem", Journal of the ACM 37(2) (1990)
@@ -390,7 +393,7 @@ class RadixHeap(HeapBase[int, V], Generic[V]):
         extra = n + 1 if self._stable else 0
         if op == "pop":
             return 2.0 + extra
-        if op == "decrease_key":
+        if op in ("decrease_key", "remove"):
             return 1.0
         if op == "meld":
             return n + 1.0
