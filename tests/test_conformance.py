@@ -16,7 +16,7 @@ from hypothesis.stateful import RuleBasedStateMachine, invariant, precondition, 
 
 import heapkit
 from heapkit.testing import ReferenceHeap
-from tests.kinds import KEYS, VARIANTS, make
+from tests.kinds import KEYS, VARIANTS, make, monotone
 
 
 def _same(a: Any, b: Any) -> bool:
@@ -189,10 +189,75 @@ class ProtocolMachine(RuleBasedStateMachine):
                 assert h.key == r.key and h.value == r.value
 
 
+class MonotoneMachine(ProtocolMachine):
+    """The same machine for monotone kinds (radix): keys at or above each heap's
+    last popped key (tracked here, 0 at the start and after clear or being melded
+    away), decrease_key never below it, meld refused while the last keys differ."""
+
+    def __init__(self) -> None:
+        super().__init__()
+        self.last = [0, 0]
+
+    @rule(w=st.integers(0, 1), up=st.integers(0, 12))
+    def push(self, w: int, up: int) -> None:
+        ProtocolMachine.push(self, w, self.last[w] + up)
+
+    @rule(w=st.integers(0, 1), ups=st.lists(st.integers(0, 12), max_size=6))
+    def extend(self, w: int, ups: list[int]) -> None:
+        ProtocolMachine.extend(self, w, [self.last[w] + u for u in ups])
+
+    @rule(w=st.integers(0, 1))
+    def pop(self, w: int) -> None:
+        if self.refs[w]:
+            self.last[w] = self.refs[w].peek().key
+        ProtocolMachine.pop(self, w)
+
+    @precondition(lambda self: self.pairs)
+    @rule(data=st.data(), drop=st.integers(0, 6))
+    def decrease_key(self, data: st.DataObject, drop: int) -> None:
+        h, r = self._pick(data)
+        if not r.alive:
+            with pytest.raises(heapkit.InvalidHandleError):
+                self.heaps[0].decrease_key(h, h.key)
+            return
+        w = self._owner(r)
+        with pytest.raises(heapkit.InvalidHandleError):
+            self.heaps[1 - w].decrease_key(h, r.key)
+        key = max(r.key - drop, self.last[w])
+        self.heaps[w].decrease_key(h, key)
+        self.refs[w].decrease_key(r, key)
+
+    @precondition(lambda self: self.pairs)
+    @rule(data=st.data(), up=st.integers(0, 12))
+    def change_key(self, data: st.DataObject, up: int) -> None:
+        h, r = self._pick(data)
+        if not r.alive:
+            with pytest.raises(heapkit.InvalidHandleError):
+                self.heaps[0].change_key(h, up)
+            return
+        w = self._owner(r)
+        self.heaps[w].change_key(h, self.last[w] + up)
+        self.refs[w].change_key(r, self.last[w] + up)
+
+    @rule(into=st.integers(0, 1))
+    def meld(self, into: int) -> None:
+        if self.refs[1 - into] and self.last[0] != self.last[1]:
+            with pytest.raises(heapkit.KeyOrderError):
+                self.heaps[into].meld(self.heaps[1 - into])
+            return
+        ProtocolMachine.meld(self, into)
+        self.last[1 - into] = 0
+
+    @rule(w=st.integers(0, 1))
+    def clear(self, w: int) -> None:
+        ProtocolMachine.clear(self, w)
+        self.last[w] = 0
+
+
 for _name, _stable in VARIANTS:
     _cls = type(
         f"Machine_{_name}_{'stable' if _stable else 'unstable'}",
-        (ProtocolMachine,),
+        (MonotoneMachine if monotone(_name) else ProtocolMachine,),
         {"kind": _name, "stable": _stable},
     )
     globals()[f"Test{_cls.__name__}"] = _cls.TestCase

@@ -21,14 +21,24 @@ def test_eight_threads_lose_nothing(name: str) -> None:
     removed: list[list[tuple[Any, Any]]] = [[] for _ in range(8)]
     ops = 10_000 if name in ("binary", "pairing", "lazy") else 3_000
 
+    failures: list[BaseException] = []
+
     def work(t: int) -> None:
+        try:
+            run(t)
+        except BaseException as exc:  # a dying thread must fail the test
+            failures.append(exc)
+
+    def run(t: int) -> None:
         rng = random.Random(t)
         mine: list[Any] = []
         for i in range(ops):
             r = rng.random()
             if r < 0.5 or not mine:
-                k = rng.randrange(10**6, 2 * 10**6) if monotone(name) else rng.randrange(10**6)
-                mine.append(q.push(k, (t, i)))
+                with q.lock:  # the radix kind needs keys at or above its last popped key
+                    floor = q.inner.last if monotone(name) else 0
+                    k = floor + rng.randrange(10**6)
+                    mine.append(q.push(k, (t, i)))
                 pushed[t].append((k, (t, i)))
             elif r < 0.7:
                 h = mine.pop(rng.randrange(len(mine)))
@@ -50,6 +60,7 @@ def test_eight_threads_lose_nothing(name: str) -> None:
         th.start()
     for th in threads:
         th.join()
+    assert not failures, failures
     heapkit.check(heapkit.threads.unwrap(q))
     rest = [q.pop() for _ in range(len(q))]
     out = sorted(v for part in popped + removed for _, v in part) + [v for _, v in rest]

@@ -8,8 +8,10 @@ from types import MappingProxyType
 from heapkit.kinds.binomial import BinomialHeap
 from heapkit.kinds.dary import BinaryHeap, DaryHeap
 from heapkit.kinds.fibonacci import FibonacciHeap
+from heapkit.kinds.hollow import HollowHeap
 from heapkit.kinds.lazy import LazyHeap
 from heapkit.kinds.pairing import PairingHeap
+from heapkit.kinds.radix import RadixHeap
 from heapkit.kinds.rank_pairing import RankPairingHeap
 
 __all__ = [
@@ -19,8 +21,10 @@ __all__ = [
     "BinomialHeap",
     "DaryHeap",
     "FibonacciHeap",
+    "HollowHeap",
     "LazyHeap",
     "PairingHeap",
+    "RadixHeap",
     "RankPairingHeap",
     "new",
 ]
@@ -28,7 +32,17 @@ __all__ = [
 KINDS: Mapping[str, type] = MappingProxyType(
     {
         cls.KIND: cls
-        for cls in (BinaryHeap, BinomialHeap, DaryHeap, FibonacciHeap, LazyHeap, PairingHeap, RankPairingHeap)
+        for cls in (
+            BinaryHeap,
+            BinomialHeap,
+            DaryHeap,
+            FibonacciHeap,
+            HollowHeap,
+            LazyHeap,
+            PairingHeap,
+            RadixHeap,
+            RankPairingHeap,
+        )
     }
 )
 
