@@ -15,6 +15,21 @@ O(log n) amortized (Fredman et al. 1986).  The standard potential is
 ``Phi = sum over nodes x of log2(size of x's subtree in the binary view)``,
 where the binary view takes ``child`` as left and ``next`` as right.
 
+Audit (``heapkit.audit``)
+-------------------------
+Cost unit: links + nodes cut + 1, where a link makes one tree a child of
+another and changes the shape.  ``PHI_C = 1``; ``Phi`` as above, kept
+exactly in audit mode (per-node binary-view sizes in ``_ext["phi"]``, fixed
+along the paths an operation changed).  Bounds on the amortized cost, derived
+with the method of Fredman et al. 1986 (section 3: the potential above and
+``log x + log y <= 2 log(x + y) - 2``; their lemma's constants are recalled
+from memory only as "O(log n)"; these are ours): pop ``2 log2 n + 1`` (first
+pass ``<= 2 log2(n - 1) - 2 floor(r / 2)``, second pass ``<= log2(n - 1)``,
+the root's ``-log2 n``, r children); push ``log2(n + 1) + 2`` (exact);
+meld ``log2 N + 2`` (``n1 n2 >= N - 1``); decrease_key ``log2 n + 3``;
+remove ``3 log2 n + 3``; change_key ``4 log2 n + 4`` (the pairing of the
+entry's children, then two hangs under the root).
+
 Source: M. L. Fredman, R. Sedgewick, D. D. Sleator, R. E. Tarjan, "The pairing
 heap: a new form of self-adjusting heap", Algorithmica 1 (1986) 111-129.
 Two-pass pairing: link children in pairs left to right, then fold the results
@@ -161,6 +176,86 @@ def _hang(root: Any, x: Any) -> None:
     root._child = x
 
 
+def _children(x: Any) -> list[Any]:
+    out = []
+    c = x._child
+    while c is not None:
+        out.append(c)
+        c = c._next
+    return out
+
+
+class _Sizes:
+    """Audit cache: ``size[x]`` = x's binary-view subtree size (child left, next
+    right), ``phi`` = sum of their log2, ``ver`` = the heap's ``_ver`` they match."""
+
+    __slots__ = ("phi", "size", "ver")
+
+    def __init__(self, heap: Any) -> None:
+        order: list[Any] = []
+        stack = [] if heap._root is None else [heap._root]
+        while stack:
+            x = stack.pop()
+            order.append(x)
+            if x._child is not None:
+                stack.append(x._child)
+            if x._next is not None:
+                stack.append(x._next)
+        size: dict[Any, int] = {}
+        phi = 0.0
+        log2 = math.log2
+        for x in reversed(order):
+            c, nx = x._child, x._next
+            s = 1 + (0 if c is None else size[c]) + (0 if nx is None else size[nx])
+            size[x] = s
+            phi += log2(s)
+        self.size = size
+        self.phi = phi
+        self.ver: int = heap._ver
+
+    def merge(self, other: _Sizes) -> None:
+        """Take another heap's sizes (smaller dict into the larger)."""
+        if len(other.size) > len(self.size):
+            self.size, other.size = other.size, self.size
+        self.size.update(other.size)
+        self.phi += other.phi
+
+
+# Precondition: every node whose child or next link changed is in dirty (or
+# removed); sizes of all other nodes are unchanged.  Restores: sizes and phi,
+# recomputing the dirty nodes and their binary-view ancestors (the prev chain)
+# deepest first.  O(nodes on those paths).
+def _refresh(st: _Sizes, dirty: Iterable[Any], removed: Iterable[Any]) -> None:
+    size = st.size
+    phi = st.phi
+    log2 = math.log2
+    for x in removed:
+        s = size.pop(x, None)
+        if s is not None:
+            phi -= log2(s)
+    depth: dict[Any, int] = {}
+    for d in dirty:
+        if d is None or d._tok is None or d in depth:
+            continue
+        path = []
+        x = d
+        while x is not None and x not in depth:
+            path.append(x)
+            x = x._prev
+        k = -1 if x is None else depth[x]
+        for y in reversed(path):
+            k += 1
+            depth[y] = k
+    for x in sorted(depth, key=depth.__getitem__, reverse=True):
+        c, nx = x._child, x._next
+        s = 1 + (0 if c is None else size[c]) + (0 if nx is None else size[nx])
+        old = size.get(x)
+        if old != s:
+            phi += log2(s) - (0.0 if old is None else log2(old))
+            size[x] = s
+    st.phi = phi
+
+
 class PairingHeap(HeapBase[K, V], Generic[K, V]):
     """Two-pass pairing heap with handles.
 
@@ -181,6 +276,7 @@ class PairingHeap(HeapBase[K, V], Generic[K, V]):
         "ownership": "every node's owner token resolves to this heap's",
     }
     COST_UNIT: ClassVar[str] = "links + nodes cut + 1"
+    PHI_C: ClassVar[float] = 1.0
     POTENTIAL: ClassVar[str] = "sum over nodes of log2(binary-view subtree size)"
 
     _root: _Node[K, V] | None
@@ -463,6 +559,96 @@ class PairingHeap(HeapBase[K, V], Generic[K, V]):
             "marked": None,
             "potential": self._potential(),
         }
+
+    # --- audit hooks (see the module docstring) -----------------------------
+    def _phi(self) -> float:
+        return self._sizes().phi
+
+    # The cached binary-view sizes, rebuilt in O(n) when the heap changed
+    # since they were last fixed (or were never computed).
+    def _sizes(self) -> _Sizes:
+        ext = self._ext
+        st = None if ext is None else ext.get("phi")
+        if st is None or st.ver != self._ver:
+            st = _Sizes(self)
+            if ext is None:
+                ext = self._ext = {}
+            ext["phi"] = st
+        return st
+
+    def _cost_probe(self, op: str, handle: Any) -> Any:
+        root = self._root
+        if op == "push":
+            return root
+        if op == "pop":
+            return (root, _children(root))
+        if op == "meld":
+            other = handle._sizes()
+            ext = handle._ext
+            del ext["phi"]
+            if not ext:
+                handle._ext = None
+            return (root, handle._root, other)
+        x = handle
+        kids = [] if op == "decrease_key" else _children(x)
+        return (x is root, x._prev, root, kids)
+
+    def _cost(self, op: str, probe: Any, handle: Any) -> int:
+        st = self._sizes_kept()
+        if op == "push":
+            _refresh(st, (probe, handle), ())
+            cost = 1 if probe is None else 2
+        elif op == "pop":
+            root, kids = probe
+            _refresh(st, kids, (root,))
+            cost = max(1, len(kids))
+        elif op == "meld":
+            a, b, other = probe
+            st.merge(other)
+            _refresh(st, (a, b), ())
+            cost = 1 if a is None or b is None else 2
+        else:
+            was_root, prev, root, kids = probe
+            x: Any = handle
+            r = len(kids)
+            if op == "remove":
+                _refresh(st, (prev, root, *kids), (x,))
+                cost = max(1, r) if was_root else r + 2
+            else:
+                _refresh(st, (prev, x, root, *kids), ())
+                if was_root:
+                    first: Any = x._child
+                    raised = self._root is not x or (r >= 2 and first._next is None)
+                    cost = r + 1 if raised else 1
+                elif r and x._child is None:  # change_key upward: children paired, x re-hung
+                    cost = r + 3
+                else:
+                    cost = 3
+        st.ver = self._ver
+        return cost
+
+    # The cache as the operation found it (the op changed _ver; _cost fixes it).
+    def _sizes_kept(self) -> _Sizes:
+        ext = self._ext
+        st = None if ext is None else ext.get("phi")
+        if st is None:
+            raise RuntimeError("pairing audit: potential cache missing (was _phi called first?)")
+        return st  # type: ignore[no-any-return]
+
+    @classmethod
+    def _bound(cls, op: str, n: int) -> float:
+        lg = math.log2(n) if n > 1 else 0.0
+        if op == "push":
+            return math.log2(n + 1) + 2
+        if op == "pop":
+            return 2 * lg + 1
+        if op == "meld":
+            return lg + 2
+        if op == "decrease_key":
+            return lg + 3
+        if op == "remove":
+            return 3 * lg + 3
+        return 4 * lg + 4
 
     @staticmethod
     def _path(x: Any, seen: dict[int, tuple[Any, int]]) -> list[str]:
