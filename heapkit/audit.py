@@ -118,6 +118,21 @@ def _state(heap: Any) -> _State | None:
     return st
 
 
+def _live(heap: Any) -> _State | None:
+    """The audit state of a heap whose class is an auditing one; None if the layer is dormant.
+
+    A dormant layer (its audit ended while another mode was stacked above it)
+    removes itself as soon as it is the outermost class again.
+    """
+    ext = heap._ext
+    st: _State | None = None if ext is None else ext.get("audit")
+    if st is None:
+        cls = type(heap)
+        if cls in _AUDITED:
+            heap.__class__ = cls.__bases__[0]
+    return st
+
+
 def _drop_cache(heap: Any) -> None:
     ext = heap._ext
     if ext is not None:
@@ -167,20 +182,20 @@ def _make_methods(base: type) -> dict[str, Any]:
     b_meld, b_clear, b_reset, b_copy = base.meld, base.clear, base._reset, base.__copy__  # type: ignore[attr-defined]
 
     def push(self: Any, key: Any, value: Any) -> Any:
-        st = _state(self)
+        st = _live(self)
         if st is None or st.busy:
             return b_push(self, key, value)
         return _measured(self, st, "push", None, b_push, key, value)
 
     def pop(self: Any) -> Any:
-        st = _state(self)
+        st = _live(self)
         if st is None or st.busy or not self._n:
             return b_pop(self)
         return _measured(self, st, "pop", None, b_pop)
 
     def _handle_op(op: str, call: Callable[..., Any]) -> Callable[..., Any]:
         def method(self: Any, handle: Any, *key: Any) -> Any:
-            st = _state(self)
+            st = _live(self)
             if st is None or st.busy or handle not in self:
                 return call(self, handle, *key)
             return _measured(self, st, op, handle, call, handle, *key)
@@ -190,7 +205,7 @@ def _make_methods(base: type) -> dict[str, Any]:
         return method
 
     def meld(self: Any, other: Any) -> None:
-        st = _state(self)
+        st = _live(self)
         if st is None or st.busy or not _meldable(self, other):
             return b_meld(self, other)  # type: ignore[no-any-return]
         n = self._n + other._n
@@ -211,7 +226,7 @@ def _make_methods(base: type) -> dict[str, Any]:
         return None
 
     def extend(self: Any, pairs: Any) -> list[Any]:
-        st = _state(self)
+        st = _live(self)
         if st is None or st.busy:
             return b_extend(self, pairs)  # type: ignore[no-any-return]
         n = self._n
@@ -238,7 +253,7 @@ def _make_methods(base: type) -> dict[str, Any]:
         return handles
 
     def clear(self: Any) -> None:
-        st = _state(self)
+        st = _live(self)
         if st is None or st.busy:
             return b_clear(self)  # type: ignore[no-any-return]
         n = self._n
@@ -253,7 +268,7 @@ def _make_methods(base: type) -> dict[str, Any]:
     # bare), the emptied heap wraps new keys for counting again.
     def _reset(self: Any) -> None:
         b_reset(self)
-        st = _state(self)
+        st = _live(self)
         if st is not None:
             self._wrap = st.wrap
 
@@ -272,6 +287,7 @@ def _make_methods(base: type) -> dict[str, Any]:
 
 
 _CLASSES: dict[type, type] = {}
+_AUDITED: set[type] = set()
 
 
 def _audited_class(base: type) -> type:
@@ -285,6 +301,7 @@ def _audited_class(base: type) -> type:
             ns[name] = fn
         cls = type(f"Audited{base.__name__}", (base,), ns)
         _CLASSES[base] = cls
+        _AUDITED.add(cls)
     return cls
 
 
