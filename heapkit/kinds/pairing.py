@@ -222,38 +222,90 @@ class _Sizes:
 
 
 # Precondition: every node whose child or next link changed is in dirty (or
-# removed); sizes of all other nodes are unchanged.  Restores: sizes and phi,
-# recomputing the dirty nodes and their binary-view ancestors (the prev chain)
-# deepest first.  O(nodes on those paths).
+# removed); sizes of all other nodes are unchanged.  Restores: sizes and phi.
+# The live dirty nodes are recomputed children-first (a post-order from each
+# one whose binary parent, ``_prev``, is not dirty), then each such top's
+# ancestors up the prev chain until a size comes out unchanged (nothing above
+# it can change through it).  O(dirty + the ancestor paths walked).
+# Precondition: members are the old root's children, now one tree under top
+# (every binary ancestor of a member is a member).  Restores: their sizes and
+# phi, with the popped root's size ``gone`` taken out.  O(members).
+def _settle(st: _Sizes, top: Any, members: set[Any], gone: int) -> None:
+    size = st.size
+    order = [top]
+    stack = [top]
+    add = order.append
+    push = stack.append
+    pop = stack.pop
+    while stack:
+        x = pop()
+        c = x._child
+        if c in members:
+            push(c)
+            add(c)
+        c = x._next
+        if c in members:
+            push(c)
+            add(c)
+    new = old = 1
+    for x in reversed(order):
+        c = x._child
+        nx = x._next
+        s = 1 + (0 if c is None else size[c]) + (0 if nx is None else size[nx])
+        old *= size[x]
+        new *= s
+        size[x] = s
+    log2 = math.log2
+    st.phi += log2(new) - log2(old) - log2(gone)
+
+
 def _refresh(st: _Sizes, dirty: Iterable[Any], removed: Iterable[Any]) -> None:
     size = st.size
-    phi = st.phi
-    log2 = math.log2
+    # Products of the old and new sizes, one log2 each at the end: exact
+    # integers, and 3x fewer log2 calls on pops (measured on Dijkstra, 10^5 nodes).
+    gone = 1
     for x in removed:
         s = size.pop(x, None)
         if s is not None:
-            phi -= log2(s)
-    depth: dict[Any, int] = {}
-    for d in dirty:
-        if d is None or d._tok is None or d in depth:
-            continue
-        path = []
-        x = d
-        while x is not None and x not in depth:
-            path.append(x)
-            x = x._prev
-        k = -1 if x is None else depth[x]
-        for y in reversed(path):
-            k += 1
-            depth[y] = k
-    for x in sorted(depth, key=depth.__getitem__, reverse=True):
-        c, nx = x._child, x._next
-        s = 1 + (0 if c is None else size[c]) + (0 if nx is None else size[nx])
-        old = size.get(x)
-        if old != s:
-            phi += log2(s) - (0.0 if old is None else log2(old))
+            gone *= s
+    members = {d for d in dirty if d is not None and d._tok is not None}
+    tops = [d for d in members if d._prev not in members]
+    new = old = 1
+    for top in tops:
+        order = [top]
+        stack = [top]
+        while stack:
+            x = stack.pop()
+            c, nx = x._child, x._next
+            if c in members:
+                stack.append(c)
+                order.append(c)
+            if nx in members:
+                stack.append(nx)
+                order.append(nx)
+        for x in reversed(order):
+            c, nx = x._child, x._next
+            s = 1 + (0 if c is None else size[c]) + (0 if nx is None else size[nx])
+            o = size.get(x)
+            if o != s:
+                new *= s
+                if o is not None:
+                    old *= o
+                size[x] = s
+    for top in tops:
+        x = top._prev
+        while x is not None:
+            c, nx = x._child, x._next
+            s = 1 + (0 if c is None else size[c]) + (0 if nx is None else size[nx])
+            o = size[x]
+            if o == s:
+                break
+            new *= s
+            old *= o
             size[x] = s
-    st.phi = phi
+            x = x._prev
+    log2 = math.log2
+    st.phi += log2(new) - log2(old) - log2(gone)
 
 
 class PairingHeap(HeapBase[K, V], Generic[K, V]):
@@ -581,7 +633,12 @@ class PairingHeap(HeapBase[K, V], Generic[K, V]):
         if op == "push":
             return root
         if op == "pop":
-            return (root, _children(root))
+            kids: set[Any] = set()
+            c = root._child  # type: ignore[union-attr]
+            while c is not None:
+                kids.add(c)
+                c = c._next
+            return (root, kids)
         if op == "meld":
             other = handle._sizes()
             ext = handle._ext
@@ -590,17 +647,30 @@ class PairingHeap(HeapBase[K, V], Generic[K, V]):
                 handle._ext = None
             return (root, handle._root, other)
         x = handle
-        kids = [] if op == "decrease_key" else _children(x)
-        return (x is root, x._prev, root, kids)
+        below = [] if op == "decrease_key" else _children(x)
+        return (x is root, x._prev, root, below)
 
     def _cost(self, op: str, probe: Any, handle: Any) -> int:
         st = self._sizes_kept()
         if op == "push":
-            _refresh(st, (probe, handle), ())
-            cost = 1 if probe is None else 2
+            # O(1): the new node's binary subtree is everything but the root
+            # (or, as the new root, everything); the root's grows by one.
+            size = st.size
+            if probe is None:
+                size[handle] = 1
+                cost = 1
+            else:
+                n = size[probe]
+                size[handle] = n + 1 if handle._child is probe else n
+                size[self._root] = n + 1
+                st.phi += math.log2(n + 1)
+                cost = 2
         elif op == "pop":
             root, kids = probe
-            _refresh(st, kids, (root,))
+            if kids:
+                _settle(st, self._root, kids, st.size.pop(root))
+            else:
+                st.size.pop(root)
             cost = max(1, len(kids))
         elif op == "meld":
             a, b, other = probe
