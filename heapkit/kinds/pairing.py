@@ -18,17 +18,20 @@ where the binary view takes ``child`` as left and ``next`` as right.
 Audit (``heapkit.audit``)
 -------------------------
 Cost unit: links + nodes cut + 1, where a link makes one tree a child of
-another and changes the shape.  ``PHI_C = 1``; ``Phi`` as above, kept
-exactly in audit mode (per-node binary-view sizes in ``_ext["phi"]``, fixed
-along the paths an operation changed).  Bounds on the amortized cost, derived
-with the method of Fredman et al. 1986 (section 3: the potential above and
-``log x + log y <= 2 log(x + y) - 2``; their lemma's constants are recalled
-from memory only as "O(log n)"; these are ours): pop ``2 log2 n + 1`` (first
-pass ``<= 2 log2(n - 1) - 2 floor(r / 2)``, second pass ``<= log2(n - 1)``,
-the root's ``-log2 n``, r children); push ``log2(n + 1) + 2`` (exact);
-meld ``log2 N + 2`` (``n1 n2 >= N - 1``); decrease_key ``log2 n + 3``;
-remove ``3 log2 n + 3``; change_key ``4 log2 n + 4`` (the pairing of the
-entry's children, then two hangs under the root).
+another and changes the shape.  ``PHI_C = 1``; ``Phi`` as above, kept exactly
+in audit mode (per-node binary-view sizes in ``_ext["phi"]``, fixed along the
+paths an operation changed: O(1) for push, O(r) for a pop with r children,
+O(binary-view depth) for a cut; built in O(n) on entry).
+
+Bounds on the amortized cost.  Recalled from memory (Fredman et al. 1986):
+this potential gives O(log n) amortized for every operation, by the step
+``log2 x + log2 y <= 2 log2(x + y) - 2``.  The constants are derived here:
+pop ``2 log2 n + 1`` (first pass ``<= 2 log2(n - 1) - 2 floor(r / 2)``,
+second pass ``<= log2(n - 1)``, the root leaves ``-log2 n``; actual r);
+push ``log2(n + 1) + 2`` (exact); meld ``log2 N + 2`` (``n1 n2 >= N - 1``);
+decrease_key ``log2 n + 3`` (the cut only shrinks ancestors); remove
+``3 log2 n + 3`` and change_key ``4 log2 n + 4`` (a pairing of the entry's
+children, then hangs under the root).
 
 Source: M. L. Fredman, R. Sedgewick, D. D. Sleator, R. E. Tarjan, "The pairing
 heap: a new form of self-adjusting heap", Algorithmica 1 (1986) 111-129.
