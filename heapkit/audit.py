@@ -102,7 +102,7 @@ def _unwrap(o: Any, key: Any) -> Any:
 class _State:
     """Per-heap audit state, in ``heap._ext["audit"]``."""
 
-    __slots__ = ("base", "busy", "ledgers", "saved_wrap", "wrap")
+    __slots__ = ("base", "busy", "last_phi", "last_ver", "ledgers", "saved_wrap", "wrap")
 
     def __init__(self, base: type, saved_wrap: Wrap | None) -> None:
         self.base = base
@@ -110,6 +110,10 @@ class _State:
         self.ledgers: tuple[Ledger, ...] = ()
         self.saved_wrap = saved_wrap
         self.wrap = _counting(saved_wrap)
+        # The potential after the last recorded operation, valid while _ver is last_ver:
+        # saves one _phi call per operation.
+        self.last_phi = 0.0
+        self.last_ver = -1
 
 
 def _state(heap: Any) -> _State | None:
@@ -151,7 +155,7 @@ def _record(
 # One audited operation on a handle (or none): measure around the base call.
 def _measured(heap: Any, st: _State, op: str, target: Any, call: Callable[..., Any], *args: Any) -> Any:
     n = heap._n
-    phi0 = heap._phi()
+    phi0 = st.last_phi if heap._ver == st.last_ver else heap._phi()
     probe = heap._cost_probe(op, target)
     c0 = _COUNT
     st.busy = True
@@ -162,9 +166,14 @@ def _measured(heap: Any, st: _State, op: str, target: Any, call: Callable[..., A
         raise
     finally:
         st.busy = False
-    after = out if op == "push" else target
-    actual = heap._cost(op, probe, after)
-    _record(heap, st, _CODE[op], n, actual, phi0, heap._bound(op, n), c0)
+    actual = heap._cost(op, probe, out if op == "push" else target)
+    bound = heap._bound(op, n)
+    phi1 = st.last_phi = heap._phi()
+    st.last_ver = heap._ver
+    cmp = _COUNT - c0
+    code = _CODE[op]
+    for led in st.ledgers:
+        led.add(code, n, actual, phi0, phi1, bound, cmp)
     return out
 
 

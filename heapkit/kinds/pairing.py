@@ -262,6 +262,26 @@ def _settle(st: _Sizes, top: Any, members: set[Any], gone: int) -> None:
     st.phi += log2(new) - log2(old) - log2(gone)
 
 
+# Precondition: as _refresh, with no dirty node below another's binary-view
+# path except through the ones listed after it (a cut and a link: prev, x, root).
+# Restores: sizes and phi, walking each path up until a size is unchanged.
+def _climb(st: _Sizes, dirty: tuple[Any, ...]) -> None:
+    size = st.size
+    new = old = 1
+    for x in dirty:
+        while x is not None:
+            c, nx = x._child, x._next
+            s = 1 + (0 if c is None else size[c]) + (0 if nx is None else size[nx])
+            o = size[x]
+            if o == s:
+                break
+            new *= s
+            old *= o
+            size[x] = s
+            x = x._prev
+    st.phi += math.log2(new) - math.log2(old)
+
+
 def _refresh(st: _Sizes, dirty: Iterable[Any], removed: Iterable[Any]) -> None:
     size = st.size
     # Products of the old and new sizes, one log2 each at the end: exact
@@ -688,7 +708,10 @@ class PairingHeap(HeapBase[K, V], Generic[K, V]):
                 _refresh(st, (prev, root, *kids), (x,))
                 cost = max(1, r) if was_root else r + 2
             else:
-                _refresh(st, (prev, x, root, *kids), ())
+                if kids:
+                    _refresh(st, (prev, x, root, *kids), ())
+                elif not was_root:
+                    _climb(st, (prev, x, root))
                 if was_root:
                     first: Any = x._child
                     raised = self._root is not x or (r >= 2 and first._next is None)
