@@ -163,6 +163,7 @@ def _measured(heap: Any, st: _State, op: str, target: Any, call: Callable[..., A
         out = call(heap, *args)
     except BaseException:
         _drop_cache(heap)
+        st.last_ver = -1
         raise
     finally:
         st.busy = False

@@ -421,12 +421,15 @@ def test_failed_operation_leaves_a_correct_potential() -> None:
     for _ in range(3):
         h.pop()  # a tree with many links
     with audit(h) as led:
+        h.push(Touchy(50), 50)
         Touchy.armed = True
         with pytest.raises(TypeError):
             h.pop()
         Touchy.armed = False
+        before = h._potential()  # the unwound shape differs from the one before the failed pop
         h.pop()
-    assert led.count == 1  # the failed pop is not recorded
+    assert led.count == 2  # the failed pop is not recorded
+    assert led.records[1].phi_before == pytest.approx(before)
     assert led.phi_end == pytest.approx(heapkit.check(h).potential)
 
 
