@@ -29,6 +29,7 @@ from heapkit.audit import Counted, attach, audit, configure, detach
 from heapkit.errors import BoundExceededError
 from heapkit.kinds.pairing import PairingHeap, _link
 from tests.kinds import NAMES, make, monotone
+from tests.test_conformance import ProtocolMachine
 
 HOOKS = ("_phi", "_cost_probe", "_cost", "_bound")
 
@@ -536,3 +537,29 @@ def test_pairing_potential_is_kept_exactly_after_every_operation() -> None:
                 if x in h and step % 2:
                     h.decrease_key(x, x.key - 5)
                     assert h._phi() == pytest.approx(h._potential(), rel=1e-9, abs=1e-9), step
+
+
+# --- the protocol suite, run on audited heaps --------------------------------------
+
+
+class AuditedProtocolMachine(ProtocolMachine):
+    """The conformance machine with both heaps audited: same answers, bounds kept."""
+
+    def __init__(self) -> None:
+        super().__init__()
+        self.ledgers = [audit(h).__enter__() for h in self.heaps]
+
+    def teardown(self) -> None:
+        for led in self.ledgers:
+            assert led.violations == [], led.summary()
+
+
+for _name in NAMES:
+    if has_hooks(_name):
+        for _stable in (False, True):
+            _cls = type(
+                f"Audited_{_name}_{'stable' if _stable else 'unstable'}",
+                (AuditedProtocolMachine,),
+                {"kind": _name, "stable": _stable},
+            )
+            globals()[f"Test{_cls.__name__}"] = _cls.TestCase
