@@ -21,8 +21,8 @@ comment block in ``Lib/heapq.py`` and Knuth, TAOCP vol. 3, ex. 5.2.3-18).
 Every operation compares first and moves entries afterwards, so an exception
 from ``<`` leaves the heap untouched.
 
-Audit (``heapkit.audit``)
--------------------------
+Audit (``heapkit.audit``; hooks in ``dary_audit.py``)
+-----------------------------------------------------
 Worst-case kind: ``Phi = 0``, so amortized = actual.  Cost unit: the levels
 the moving entry travels + 1 (the pushed, changed or re-seated last entry).
 Bounds, with ``L(s)`` the number of levels of a complete d-ary tree of ``s``
@@ -30,7 +30,8 @@ entries (``L(s) = depth(s - 1) + 1``): push ``L(n + 1)``, pop, remove,
 decrease_key, change_key ``L(n)``: an entry moves at most between the root and
 the deepest level.  Meld: the cost is half the total level displacement of the
 entries it moves + 1; Floyd's heapify moves entries at most the sum of the
-heights, < N levels (CLRS, 3rd ed., section 6.3), and the pushes branch is
+heights, < N levels (O(N) in CLRS, 3rd ed., 6.3; "< N" recalled from memory:
+N - popcount(N) for d = 2, less for larger d), and the pushes branch is
 taken only when ``m * bitlength(N) < N``, so the bound is ``N + 1`` for the
 combined size N.  The ``d`` factor of pop shows in the comparisons column
 (``d - 1`` a level down, bottom-up), not in this unit.
@@ -52,6 +53,7 @@ from heapkit._core import (
     nan_error,
     upward_error,
 )
+from heapkit.kinds.dary_audit import DaryAudit, _depth
 from heapkit.protocol import Handle
 
 __all__ = ["BinaryHeap", "DaryHeap"]
@@ -73,24 +75,7 @@ class _Slot(HandleBase[K, V]):
         self._i = -1
 
 
-# The meld strategy: push m entries into n (m log(n + m) work) or heapify the
-# concatenation (n + m work), whichever bound is smaller.
-def _pushes(n: int, m: int) -> bool:
-    return m * (n + m).bit_length() < n + m
-
-
-def _depth(i: int, d: int) -> int:
-    """Depth of position i in a d-ary array heap (the root is 0).  O(log_d i)."""
-    if d == 2:
-        return (i + 1).bit_length() - 1
-    k = 0
-    while i:
-        i = (i - 1) // d
-        k += 1
-    return k
-
-
-class DaryHeap(HeapBase[K, V], Generic[K, V]):
+class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
     """Array heap of any arity (``dary`` is 4, ``binary`` is 2) with handles.
 
     >>> h = DaryHeap([(5, 'e'), (2, 'b')], arity=4)
@@ -368,7 +353,7 @@ class DaryHeap(HeapBase[K, V], Generic[K, V]):
         b = other._a
         n, m = len(a), len(b)
         tok = self._tok
-        if _pushes(n, m):
+        if self._pushes(n, m):
             # A few entries into many: push them, undoing in reverse on failure.
             done = 0
             try:
@@ -435,57 +420,12 @@ class DaryHeap(HeapBase[K, V], Generic[K, V]):
         for x in self._a:
             x._k = fn(x._k, x._key)
 
-    # --- audit hooks (see the module docstring) -----------------------------
-    def _phi(self) -> float:
-        return 0.0
-
-    def _cost_probe(self, op: str, handle: Any) -> Any:
-        a = self._a
-        if op == "push":
-            return len(a)
-        if op == "pop":
-            return (len(a) - 1, a[-1])
-        if op == "remove":
-            return (handle._i, a[-1])
-        if op == "meld":
-            return self._meld_probe(handle)
-        return handle._i
-
-    def _cost(self, op: str, probe: Any, handle: Any) -> int:
-        d = self._d
-        if op == "push":
-            return _depth(probe, d) - _depth(handle._i, d) + 1
-        if op == "pop" or op == "remove":
-            start, last = probe
-            if last._tok is None:  # the last entry itself left (it was the one removed)
-                return 1
-            if op == "pop":
-                start = 0
-            return abs(_depth(start, d) - _depth(last._i, d)) + 1
-        if op == "meld":
-            moved: int = sum(abs(_depth(x._i, d) - dep) for x, dep in probe)
-            return (moved + 1) // 2 + 1
-        return abs(_depth(probe, d) - _depth(handle._i, d)) + 1
-
-    # The entries a meld may move, with their depth before it (other's entries
-    # at the positions they are appended to): every entry when heapifying
-    # (O(n + m) work anyway), else the ancestors of the appended positions.
-    def _meld_probe(self, other: DaryHeap[K, V]) -> list[tuple[Any, int]]:
-        a, b, d = self._a, other._a, self._d
-        n, m = len(a), len(b)
-        out = [(x, _depth(n + j, d)) for j, x in enumerate(b)]
-        if not _pushes(n, m):
-            out.extend((x, _depth(i, d)) for i, x in enumerate(a))
-            return out
-        seen: set[int] = set()
-        for j in range(n, n + m):
-            while j:
-                j = (j - 1) // d
-                if j in seen:
-                    break
-                seen.add(j)
-        out.extend((a[i], _depth(i, d)) for i in seen if i < n)
-        return out
+    # --- audit: the bound here (derived in the module docstring); hooks in DaryAudit
+    # The meld strategy: push m entries into n (m log(n + m) work) or heapify the
+    # concatenation (n + m work), whichever bound is smaller.
+    @staticmethod
+    def _pushes(n: int, m: int) -> bool:
+        return m * (n + m).bit_length() < n + m
 
     # An instance method, not a classmethod: the bound depends on the arity.
     def _bound(self, op: str, n: int) -> float:

@@ -15,23 +15,15 @@ O(log n) amortized (Fredman et al. 1986).  The standard potential is
 ``Phi = sum over nodes x of log2(size of x's subtree in the binary view)``,
 where the binary view takes ``child`` as left and ``next`` as right.
 
-Audit (``heapkit.audit``)
--------------------------
-Cost unit: links + nodes cut + 1, where a link makes one tree a child of
-another and changes the shape.  ``PHI_C = 1``; ``Phi`` as above, kept exactly
-in audit mode (per-node binary-view sizes in ``_ext["phi"]``, fixed along the
-paths an operation changed: O(1) for push, O(r) for a pop with r children,
-O(binary-view depth) for a cut; built in O(n) on entry).
-
-Bounds on the amortized cost.  Recalled from memory (Fredman et al. 1986):
-this potential gives O(log n) amortized for every operation, by the step
-``log2 x + log2 y <= 2 log2(x + y) - 2``.  The constants are derived here:
-pop ``2 log2 n + 1`` (first pass ``<= 2 log2(n - 1) - 2 floor(r / 2)``,
-second pass ``<= log2(n - 1)``, the root leaves ``-log2 n``; actual r);
-push ``log2(n + 1) + 2`` (exact); meld ``log2 N + 2`` (``n1 n2 >= N - 1``);
-decrease_key ``log2 n + 3`` (the cut only shrinks ancestors); remove
-``3 log2 n + 3`` and change_key ``4 log2 n + 4`` (a pairing of the entry's
-children, then hangs under the root).
+Audit (``heapkit.audit``; hooks in ``pairing_audit.py``)
+--------------------------------------------------------
+Cost: links + nodes cut + 1.  ``PHI_C = 1``, ``Phi`` as above.  Recalled from
+memory: FSST 1986 get O(log n) amortized for all operations from this Phi and
+``log2 x + log2 y <= 2 log2(x + y) - 2``.  Constants derived here: pop
+``2 log2 n + 1`` (first pass <= 2 log2(n-1) - 2 floor(r/2), second <= log2(n-1),
+root -log2 n, actual r); push ``log2(n+1) + 2``; meld ``log2 N + 2``
+(n1 n2 >= N - 1); decrease_key ``log2 n + 3`` (a cut only shrinks ancestors);
+remove ``3 log2 n + 3``; change_key ``4 log2 n + 4`` (pair, cut, two hangs).
 
 Source: M. L. Fredman, R. Sedgewick, D. D. Sleator, R. E. Tarjan, "The pairing
 heap: a new form of self-adjusting heap", Algorithmica 1 (1986) 111-129.
@@ -52,6 +44,7 @@ from heapkit._core import (
     nan_error,
     upward_error,
 )
+from heapkit.kinds.pairing_audit import PairingAudit, Sizes
 from heapkit.protocol import Handle
 
 __all__ = ["PairingHeap"]
@@ -179,159 +172,7 @@ def _hang(root: Any, x: Any) -> None:
     root._child = x
 
 
-def _children(x: Any) -> list[Any]:
-    out = []
-    c = x._child
-    while c is not None:
-        out.append(c)
-        c = c._next
-    return out
-
-
-class _Sizes:
-    """Audit cache: ``size[x]`` = x's binary-view subtree size (child left, next
-    right), ``phi`` = sum of their log2, ``ver`` = the heap's ``_ver`` they match."""
-
-    __slots__ = ("phi", "size", "ver")
-
-    def __init__(self, heap: Any) -> None:
-        order: list[Any] = []
-        stack = [] if heap._root is None else [heap._root]
-        while stack:
-            x = stack.pop()
-            order.append(x)
-            if x._child is not None:
-                stack.append(x._child)
-            if x._next is not None:
-                stack.append(x._next)
-        size: dict[Any, int] = {}
-        phi = 0.0
-        log2 = math.log2
-        for x in reversed(order):
-            c, nx = x._child, x._next
-            s = 1 + (0 if c is None else size[c]) + (0 if nx is None else size[nx])
-            size[x] = s
-            phi += log2(s)
-        self.size = size
-        self.phi = phi
-        self.ver: int = heap._ver
-
-    def merge(self, other: _Sizes) -> None:
-        """Take another heap's sizes (smaller dict into the larger)."""
-        if len(other.size) > len(self.size):
-            self.size, other.size = other.size, self.size
-        self.size.update(other.size)
-        self.phi += other.phi
-
-
-# Precondition: every node whose child or next link changed is in dirty (or
-# removed); sizes of all other nodes are unchanged.  Restores: sizes and phi.
-# The live dirty nodes are recomputed children-first (a post-order from each
-# one whose binary parent, ``_prev``, is not dirty), then each such top's
-# ancestors up the prev chain until a size comes out unchanged (nothing above
-# it can change through it).  O(dirty + the ancestor paths walked).
-# Precondition: members are the old root's children, now one tree under top
-# (every binary ancestor of a member is a member).  Restores: their sizes and
-# phi, with the popped root's size ``gone`` taken out.  O(members).
-def _settle(st: _Sizes, top: Any, members: set[Any], gone: int) -> None:
-    size = st.size
-    order = [top]
-    stack = [top]
-    add = order.append
-    push = stack.append
-    pop = stack.pop
-    while stack:
-        x = pop()
-        c = x._child
-        if c in members:
-            push(c)
-            add(c)
-        c = x._next
-        if c in members:
-            push(c)
-            add(c)
-    new = old = 1
-    for x in reversed(order):
-        c = x._child
-        nx = x._next
-        s = 1 + (0 if c is None else size[c]) + (0 if nx is None else size[nx])
-        old *= size[x]
-        new *= s
-        size[x] = s
-    log2 = math.log2
-    st.phi += log2(new) - log2(old) - log2(gone)
-
-
-# Precondition: as _refresh, with no dirty node below another's binary-view
-# path except through the ones listed after it (a cut and a link: prev, x, root).
-# Restores: sizes and phi, walking each path up until a size is unchanged.
-def _climb(st: _Sizes, dirty: tuple[Any, ...]) -> None:
-    size = st.size
-    new = old = 1
-    for x in dirty:
-        while x is not None:
-            c, nx = x._child, x._next
-            s = 1 + (0 if c is None else size[c]) + (0 if nx is None else size[nx])
-            o = size[x]
-            if o == s:
-                break
-            new *= s
-            old *= o
-            size[x] = s
-            x = x._prev
-    st.phi += math.log2(new) - math.log2(old)
-
-
-def _refresh(st: _Sizes, dirty: Iterable[Any], removed: Iterable[Any]) -> None:
-    size = st.size
-    # Products of the old and new sizes, one log2 each at the end: exact
-    # integers, and 3x fewer log2 calls on pops (measured on Dijkstra, 10^5 nodes).
-    gone = 1
-    for x in removed:
-        s = size.pop(x, None)
-        if s is not None:
-            gone *= s
-    members = {d for d in dirty if d is not None and d._tok is not None}
-    tops = [d for d in members if d._prev not in members]
-    new = old = 1
-    for top in tops:
-        order = [top]
-        stack = [top]
-        while stack:
-            x = stack.pop()
-            c, nx = x._child, x._next
-            if c in members:
-                stack.append(c)
-                order.append(c)
-            if nx in members:
-                stack.append(nx)
-                order.append(nx)
-        for x in reversed(order):
-            c, nx = x._child, x._next
-            s = 1 + (0 if c is None else size[c]) + (0 if nx is None else size[nx])
-            o = size.get(x)
-            if o != s:
-                new *= s
-                if o is not None:
-                    old *= o
-                size[x] = s
-    for top in tops:
-        x = top._prev
-        while x is not None:
-            c, nx = x._child, x._next
-            s = 1 + (0 if c is None else size[c]) + (0 if nx is None else size[nx])
-            o = size[x]
-            if o == s:
-                break
-            new *= s
-            old *= o
-            size[x] = s
-            x = x._prev
-    log2 = math.log2
-    st.phi += log2(new) - log2(old) - log2(gone)
-
-
-class PairingHeap(HeapBase[K, V], Generic[K, V]):
+class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
     """Two-pass pairing heap with handles.
 
     >>> h = PairingHeap([(5, 'e'), (2, 'b')])
@@ -632,119 +473,20 @@ class PairingHeap(HeapBase[K, V], Generic[K, V]):
             "height": height,
             "max_degree": max_degree,
             "marked": None,
-            "potential": self._potential(),
+            "potential": Sizes(self).phi,
         }
 
-    # --- audit hooks (see the module docstring) -----------------------------
-    def _phi(self) -> float:
-        return self._sizes().phi
-
-    # The cached binary-view sizes, rebuilt in O(n) when the heap changed
-    # since they were last fixed (or were never computed).
-    def _sizes(self) -> _Sizes:
-        ext = self._ext
-        st = None if ext is None else ext.get("phi")
-        if st is None or st.ver != self._ver:
-            st = _Sizes(self)
-            if ext is None:
-                ext = self._ext = {}
-            ext["phi"] = st
-        return st
-
-    def _cost_probe(self, op: str, handle: Any) -> Any:
-        root = self._root
-        if op == "push":
-            return root
-        if op == "pop":
-            kids: set[Any] = set()
-            c = root._child  # type: ignore[union-attr]
-            while c is not None:
-                kids.add(c)
-                c = c._next
-            return (root, kids)
-        if op == "meld":
-            other = handle._sizes()
-            ext = handle._ext
-            del ext["phi"]
-            if not ext:
-                handle._ext = None
-            return (root, handle._root, other)
-        x = handle
-        below = [] if op == "decrease_key" else _children(x)
-        return (x is root, x._prev, root, below)
-
-    def _cost(self, op: str, probe: Any, handle: Any) -> int:
-        st = self._sizes_kept()
-        if op == "push":
-            # O(1): the new node's binary subtree is everything but the root
-            # (or, as the new root, everything); the root's grows by one.
-            size = st.size
-            if probe is None:
-                size[handle] = 1
-                cost = 1
-            else:
-                n = size[probe]
-                size[handle] = n + 1 if handle._child is probe else n
-                size[self._root] = n + 1
-                st.phi += math.log2(n + 1)
-                cost = 2
-        elif op == "pop":
-            root, kids = probe
-            if kids:
-                _settle(st, self._root, kids, st.size.pop(root))
-            else:
-                st.size.pop(root)
-            cost = max(1, len(kids))
-        elif op == "meld":
-            a, b, other = probe
-            st.merge(other)
-            _refresh(st, (a, b), ())
-            cost = 1 if a is None or b is None else 2
-        else:
-            was_root, prev, root, kids = probe
-            x: Any = handle
-            r = len(kids)
-            if op == "remove":
-                _refresh(st, (prev, root, *kids), (x,))
-                cost = max(1, r) if was_root else r + 2
-            else:
-                if kids:
-                    _refresh(st, (prev, x, root, *kids), ())
-                elif not was_root:
-                    _climb(st, (prev, x, root))
-                if was_root:
-                    first: Any = x._child
-                    raised = self._root is not x or (r >= 2 and first._next is None)
-                    cost = r + 1 if raised else 1
-                elif r and x._child is None:  # change_key upward: children paired, x re-hung
-                    cost = r + 3
-                else:
-                    cost = 3
-        st.ver = self._ver
-        return cost
-
-    # The cache as the operation found it (the op changed _ver; _cost fixes it).
-    def _sizes_kept(self) -> _Sizes:
-        ext = self._ext
-        st = None if ext is None else ext.get("phi")
-        if st is None:
-            raise RuntimeError("pairing audit: potential cache missing (was _phi called first?)")
-        return st  # type: ignore[no-any-return]
+    #: Audit bounds (module docstring): op -> (a, b), amortized cost <= a log2 n + b.
+    _BOUNDS: ClassVar[dict[str, tuple[int, int]]] = {
+        "pop": (2, 1), "meld": (1, 2), "decrease_key": (1, 3), "remove": (3, 3), "change_key": (4, 4),
+    }
 
     @classmethod
     def _bound(cls, op: str, n: int) -> float:
-        lg = math.log2(n) if n > 1 else 0.0
         if op == "push":
             return math.log2(n + 1) + 2
-        if op == "pop":
-            return 2 * lg + 1
-        if op == "meld":
-            return lg + 2
-        if op == "decrease_key":
-            return lg + 3
-        if op == "remove":
-            return 3 * lg + 3
-        return 4 * lg + 4
+        a, b = cls._BOUNDS[op]
+        return a * math.log2(n) + b if n > 1 else float(b)
 
     @staticmethod
     def _path(x: Any, seen: dict[int, tuple[Any, int]]) -> list[str]:
@@ -755,22 +497,3 @@ class PairingHeap(HeapBase[K, V], Generic[K, V]):
             x = parent
         steps.reverse()
         return steps
-
-    def _potential(self) -> float:
-        """Sum of log2 binary-view subtree sizes, computed bottom-up.  O(n)."""
-        order: list[Any] = []
-        stack = [] if self._root is None else [self._root]
-        while stack:
-            x = stack.pop()
-            order.append(x)
-            if x._child is not None:
-                stack.append(x._child)
-            if x._next is not None:
-                stack.append(x._next)
-        size: dict[int, int] = {}
-        total = 0.0
-        for x in reversed(order):
-            s = 1 + size.get(id(x._child), 0) + size.get(id(x._next), 0)
-            size[id(x)] = s
-            total += math.log2(s)
-        return total
