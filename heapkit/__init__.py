@@ -1,5 +1,6 @@
 """heapkit: addressable priority queues with handles, contracts and an auditor."""
 
+from heapkit.audit import audit
 from heapkit.contracts import check, checked, to_dot, unchecked
 from heapkit.errors import (
     BoundExceededError,
@@ -13,10 +14,13 @@ from heapkit.kinds import (
     DEFAULT,
     KINDS,
     BinaryHeap,
+    BinomialHeap,
     DaryHeap,
     FibonacciHeap,
+    HollowHeap,
     LazyHeap,
     PairingHeap,
+    RadixHeap,
     RankPairingHeap,
     new,
 )
@@ -45,6 +49,7 @@ __all__ = [
     "RadixHeap",
     "RankPairingHeap",
     "Shape",
+    "audit",
     "check",
     "checked",
     "locked",

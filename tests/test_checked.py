@@ -240,7 +240,8 @@ def test_heapkit_debug_makes_new_heaps_checked() -> None:
         "h = heapkit.PairingHeap([([2], 'b')])\n"
         "d = heapkit.new('dary')\n"
         "st = h._ext['checked']\n"
-        "print(st.every, isinstance(h, heapkit.PairingHeap), type(d).__dict__.get('_layer'))\n"
+        "layers = [c.__dict__['_layer'] for c in type(d).__mro__ if '_layer' in c.__dict__]\n"
+        "print(st.every, isinstance(h, heapkit.PairingHeap), *layers)\n"
         "k = [5]; x = h.push(k, 'five'); k[0] = 0\n"
         "try:\n"
         "    [h.push([9], 'n') for _ in range(3)]\n"
@@ -249,7 +250,8 @@ def test_heapkit_debug_makes_new_heaps_checked() -> None:
     )
     out = _python(code, "check:3, audit")
     assert out.returncode == 0, out.stderr
-    assert out.stdout.split("\n")[:2] == ["3 True checked", "caught ('heap-order',)"]
+    # both modes stack: the audit (attached second) sits above checked mode
+    assert out.stdout.split("\n")[:2] == ["3 True audit checked", "caught ('heap-order',)"]
 
 
 def test_heapkit_debug_rejects_unknown_values() -> None:

@@ -221,3 +221,12 @@ def test_deep_structures_need_no_recursion(name: str) -> None:
     assert sum(1 for _ in heap) == n
     assert heap.pop() == (1, None)
     heap.clear()
+
+
+def test_public_names_exist_and_are_sorted() -> None:
+    assert len(set(heapkit.__all__)) == len(heapkit.__all__)
+    for name in heapkit.__all__:
+        assert hasattr(heapkit, name), name
+    for name, cls in heapkit.KINDS.items():
+        assert getattr(heapkit, cls.__name__) is cls and name == cls.KIND
+    assert heapkit.DEFAULT in heapkit.KINDS

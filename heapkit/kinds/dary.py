@@ -21,6 +21,21 @@ comment block in ``Lib/heapq.py`` and Knuth, TAOCP vol. 3, ex. 5.2.3-18).
 Every operation compares first and moves entries afterwards, so an exception
 from ``<`` leaves the heap untouched.
 
+Audit (``heapkit.audit``; hooks in ``dary_audit.py``)
+-----------------------------------------------------
+Worst-case kind: ``Phi = 0``, so amortized = actual.  Cost unit: the levels
+the moving entry travels + 1 (the pushed, changed or re-seated last entry).
+Bounds, with ``L(s)`` the number of levels of a complete d-ary tree of ``s``
+entries (``L(s) = depth(s - 1) + 1``): push ``L(n + 1)``, pop, remove,
+decrease_key, change_key ``L(n)``: an entry moves at most between the root and
+the deepest level.  Meld: the cost is half the total level displacement of the
+entries it moves + 1; Floyd's heapify moves entries at most the sum of the
+heights, < N levels (O(N) in CLRS, 3rd ed., 6.3; "< N" recalled from memory:
+N - popcount(N) for d = 2, less for larger d), and the pushes branch is
+taken only when ``m * bitlength(N) < N``, so the bound is ``N + 1`` for the
+combined size N.  The ``d`` factor of pop shows in the comparisons column
+(``d - 1`` a level down, bottom-up), not in this unit.
+
 Sources: J. W. J. Williams, "Algorithm 232: Heapsort", CACM 7 (1964); R. W.
 Floyd, "Algorithm 245: Treesort 3", CACM 7 (1964); D. B. Johnson, "Priority
 queues with update and finding minimum spanning trees", IPL 4 (1975) (d-ary).
@@ -39,6 +54,7 @@ from heapkit._core import (
     upward_error,
 )
 from heapkit.kinds import dary_checks as _dc
+from heapkit.kinds.dary_audit import DaryAudit, _depth
 from heapkit.protocol import Handle
 
 __all__ = ["BinaryHeap", "DaryHeap"]
@@ -60,7 +76,7 @@ class _Slot(HandleBase[K, V]):
         self._i = -1
 
 
-class DaryHeap(HeapBase[K, V], Generic[K, V]):
+class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
     """Array heap of any arity (``dary`` is 4, ``binary`` is 2) with handles.
 
     >>> h = DaryHeap([(5, 'e'), (2, 'b')], arity=4)
@@ -82,6 +98,7 @@ class DaryHeap(HeapBase[K, V], Generic[K, V]):
         "ownership": "every handle's owner token resolves to this heap's",
     }
     COST_UNIT: ClassVar[str] = "levels an entry moves + 1"
+    PHI_C: ClassVar[float] = 1.0
     POTENTIAL: ClassVar[str] = "none (worst-case bounds)"
 
     _a: list[_Slot[K, V]]
@@ -337,7 +354,7 @@ class DaryHeap(HeapBase[K, V], Generic[K, V]):
         b = other._a
         n, m = len(a), len(b)
         tok = self._tok
-        if self._meld_by_pushes(n, m):
+        if self._pushes(n, m):
             # A few entries into many: push them, undoing in reverse on failure.
             done = 0
             try:
@@ -369,11 +386,6 @@ class DaryHeap(HeapBase[K, V], Generic[K, V]):
                 raise
         for x in b:
             x._tok = tok
-
-    @staticmethod
-    def _meld_by_pushes(n: int, m: int) -> bool:
-        """Does meld push ``m`` entries one by one into ``n`` (else heapify all)?"""
-        return m * max(1, n.bit_length()) < n + m
 
     # Checked mode and to_dot hooks (see dary_checks.py and the SPI in _core.py).
     _touched, _survey_local, _dot_edges = _dc.touched, _dc.survey_local, _dc.dot_edges
@@ -411,6 +423,21 @@ class DaryHeap(HeapBase[K, V], Generic[K, V]):
     def _map_order(self, fn: Callable[[Any, Any], Any]) -> None:
         for x in self._a:
             x._k = fn(x._k, x._key)
+
+    # --- audit: the bound here (derived in the module docstring); hooks in DaryAudit
+    # The meld strategy: push m entries into n (m log(n + m) work) or heapify the
+    # concatenation (n + m work), whichever bound is smaller.
+    @staticmethod
+    def _pushes(n: int, m: int) -> bool:
+        return m * (n + m).bit_length() < n + m
+
+    # An instance method, not a classmethod: the bound depends on the arity.
+    def _bound(self, op: str, n: int) -> float:
+        if op == "meld":
+            return float(n + 1)
+        d = self._d
+        size = n + 1 if op == "push" else n
+        return float(_depth(max(size - 1, 0), d) + 1)
 
     def _path(self, i: int) -> list[str]:
         d = self._d

@@ -38,7 +38,7 @@ def touched(heap: Any, op: str, handle: Any) -> Any:
         return [handle._i], a[-1:], False
     if op == "meld":
         n, m = len(a), len(handle._a)
-        if heap._meld_by_pushes(n, m):
+        if heap._pushes(n, m):
             return list(range(n, n + m)), [], True
         return None
     return None

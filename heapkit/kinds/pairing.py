@@ -15,6 +15,16 @@ O(log n) amortized (Fredman et al. 1986).  The standard potential is
 ``Phi = sum over nodes x of log2(size of x's subtree in the binary view)``,
 where the binary view takes ``child`` as left and ``next`` as right.
 
+Audit (``heapkit.audit``; hooks in ``pairing_audit.py``)
+--------------------------------------------------------
+Cost: links + nodes cut + 1.  ``PHI_C = 1``, ``Phi`` as above.  Recalled from
+memory: FSST 1986 get O(log n) amortized for all operations from this Phi and
+``log2 x + log2 y <= 2 log2(x + y) - 2``.  Constants derived here: pop
+``2 log2 n + 1`` (first pass <= 2 log2(n-1) - 2 floor(r/2), second <= log2(n-1),
+root -log2 n, actual r); push ``log2(n+1) + 2``; meld ``log2 N + 2``
+(n1 n2 >= N - 1); decrease_key ``log2 n + 3`` (a cut only shrinks ancestors);
+remove ``3 log2 n + 3``; change_key ``4 log2 n + 4`` (pair, cut, two hangs).
+
 Source: M. L. Fredman, R. Sedgewick, D. D. Sleator, R. E. Tarjan, "The pairing
 heap: a new form of self-adjusting heap", Algorithmica 1 (1986) 111-129.
 Two-pass pairing: link children in pairs left to right, then fold the results
@@ -35,6 +45,7 @@ from heapkit._core import (
     upward_error,
 )
 from heapkit.kinds import pairing_checks as _pc
+from heapkit.kinds.pairing_audit import PairingAudit, Sizes
 from heapkit.protocol import Handle
 
 __all__ = ["PairingHeap"]
@@ -162,7 +173,7 @@ def _hang(root: Any, x: Any) -> None:
     root._child = x
 
 
-class PairingHeap(HeapBase[K, V], Generic[K, V]):
+class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
     """Two-pass pairing heap with handles.
 
     >>> h = PairingHeap([(5, 'e'), (2, 'b')])
@@ -182,6 +193,7 @@ class PairingHeap(HeapBase[K, V], Generic[K, V]):
         "ownership": "every node's owner token resolves to this heap's",
     }
     COST_UNIT: ClassVar[str] = "links + nodes cut + 1"
+    PHI_C: ClassVar[float] = 1.0
     POTENTIAL: ClassVar[str] = "sum over nodes of log2(binary-view subtree size)"
 
     _root: _Node[K, V] | None
@@ -465,8 +477,20 @@ class PairingHeap(HeapBase[K, V], Generic[K, V]):
             "height": height,
             "max_degree": max_degree,
             "marked": None,
-            "potential": self._potential(),
+            "potential": Sizes(self).phi,
         }
+
+    #: Audit bounds (module docstring): op -> (a, b), amortized cost <= a log2 n + b.
+    _BOUNDS: ClassVar[dict[str, tuple[int, int]]] = {
+        "pop": (2, 1), "meld": (1, 2), "decrease_key": (1, 3), "remove": (3, 3), "change_key": (4, 4),
+    }
+
+    @classmethod
+    def _bound(cls, op: str, n: int) -> float:
+        if op == "push":
+            return math.log2(n + 1) + 2
+        a, b = cls._BOUNDS[op]
+        return a * math.log2(n) + b if n > 1 else float(b)
 
     @staticmethod
     def _path(x: Any, seen: dict[int, tuple[Any, int]]) -> list[str]:
@@ -477,22 +501,3 @@ class PairingHeap(HeapBase[K, V], Generic[K, V]):
             x = parent
         steps.reverse()
         return steps
-
-    def _potential(self) -> float:
-        """Sum of log2 binary-view subtree sizes, computed bottom-up.  O(n)."""
-        order: list[Any] = []
-        stack = [] if self._root is None else [self._root]
-        while stack:
-            x = stack.pop()
-            order.append(x)
-            if x._child is not None:
-                stack.append(x._child)
-            if x._next is not None:
-                stack.append(x._next)
-        size: dict[int, int] = {}
-        total = 0.0
-        for x in reversed(order):
-            s = 1 + size.get(id(x._child), 0) + size.get(id(x._next), 0)
-            size[id(x)] = s
-            total += math.log2(s)
-        return total
