@@ -73,7 +73,7 @@ def sort(pairs: list[tuple[Any, int]]) -> list[tuple[Any, int]]:
         entry = [key, next(counter), task]
         entry_finder[task] = entry
         heappush(pq, entry)
-    out = []
+    out: list[tuple[Any, int]] = []
     append = out.append
     while pq:
         key, _, task = heappop(pq)
@@ -94,7 +94,7 @@ def scheduler(ops: list[tuple[int, int, Any]], ntasks: int) -> list[tuple[Any, i
     counter = itertools.count()
     pq: list[list[Any]] = []
     entry_finder: dict[int, list[Any]] = {}
-    out = []
+    out: list[tuple[Any, int]] = []
     append = out.append
     for op, task, key in ops:
         if op == 0:
@@ -153,7 +153,7 @@ def meld(groups: list[list[tuple[Any, int]]], npop: int) -> list[tuple[Any, int]
             nxt.append(queues[-1])
         queues = nxt
     pq, entry_finder = queues[0]
-    out = []
+    out: list[tuple[Any, int]] = []
     while pq and len(out) < npop:
         key, _, task = heappop(pq)
         if task is not REMOVED:
@@ -176,7 +176,7 @@ def hold(keys: list[float], incs: list[float]) -> list[float]:
         entry = [key, next(counter), task]
         entry_finder[task] = entry
         heappush(pq, entry)
-    out = []
+    out: list[float] = []
     append = out.append
     for inc in incs:
         while True:

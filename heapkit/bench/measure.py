@@ -93,13 +93,19 @@ def time_workload(
         row = rows[name] = Row(name)
         for rep in range(repeat):
             progress(f"{w.name}: {name} {rep + 1}/{repeat}")
-            runs: list[tuple[float, Any]] = []
-            for which in ((0, 1) if rep % 2 == 0 else (1, 0)):
-                if which == 0:
-                    runs.append(timed(lambda: w.baseline(data)))
-                else:
-                    runs.append(timed(lambda c=cls: w.run(c, data)))
-            (tb, base), (tk, got) = runs if rep % 2 == 0 else runs[::-1]
+
+            def base_run() -> Any:
+                return w.baseline(data)
+
+            def kind_run(c: type = cls) -> Any:
+                return w.run(c, data)
+
+            if rep % 2 == 0:
+                tb, base = timed(base_run)
+                tk, got = timed(kind_run)
+            else:
+                tk, got = timed(kind_run)
+                tb, base = timed(base_run)
             if rep == 0 and not w.same(got, base):
                 row.ok = False
             row.base_s.append(tb)
@@ -224,7 +230,9 @@ def bytes_per_entry(kinds: Mapping[str, type], n: int) -> dict[str, float]:
     return out
 
 
-def growth(kinds: Mapping[str, type], sizes: list[int], progress: Progress = _quiet) -> dict[str, list[float]]:
+def growth(
+    kinds: Mapping[str, type], sizes: list[int], progress: Progress = _quiet
+) -> dict[str, list[float]]:
     """Nanoseconds per operation for n pushes then n pops of random keys, at each
     size (the best of a few runs; one run above 10^5), for the idiom and each kind.
 
@@ -241,9 +249,13 @@ def growth(kinds: Mapping[str, type], sizes: list[int], progress: Progress = _qu
         pairs = make(n / 100_000)
         reps = 3 if n <= 100_000 else 1
         progress(f"growth: n = {n}")
-        out["heapq idiom"].append(min(timed(lambda: idiom.sort(pairs))[0] for _ in range(reps)) / (2 * n) * 1e9)
-        for name, cls in kinds.items():
-            best = min(timed(lambda c=cls: sort(c, pairs))[0] for _ in range(reps))
+        for name in out:
+            cls = kinds.get(name)
+
+            def once(c: type | None = cls, p: list[tuple[int, int]] = pairs) -> Any:
+                return idiom.sort(p) if c is None else sort(c, p)
+
+            best = min(timed(once)[0] for _ in range(reps))
             out[name].append(best / (2 * n) * 1e9)
     return out
 
@@ -306,9 +318,13 @@ def modes(
             ratios = []
             try:
                 for _ in range(repeat):
-                    tp, plain = timed(lambda c=cls: w.run(c, data))
+
+                    def run(f: Callable[[], Any]) -> Callable[[], Any]:
+                        return lambda: w.run(f, data)
+
+                    tp, plain = timed(run(cls))
                     with _mode(mode, cls) as factory:
-                        tm, got = timed(lambda f=factory: w.run(f, data))
+                        tm, got = timed(run(factory))
                     if not w.same(got, plain):
                         raise ValueError("result differs from the plain heap's")
                     ratios.append(tm / tp if tp > 0 else math.inf)

@@ -115,7 +115,7 @@ def scheduler(factory: Factory, ops: list[tuple[int, int, Any]], ntasks: int) ->
     decrease_key = heap.decrease_key
     remove = heap.remove
     handles: list[Any] = [None] * ntasks
-    out = []
+    out: list[tuple[Any, int]] = []
     append = out.append
     for op, task, key in ops:
         if op == 0:
@@ -170,7 +170,7 @@ def hold(factory: Factory, keys: list[float], incs: list[float]) -> list[float]:
     pop = heap.pop
     for task, key in enumerate(keys):
         push(key, task)
-    out = []
+    out: list[float] = []
     append = out.append
     for inc in incs:
         t, task = pop()

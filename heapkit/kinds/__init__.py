@@ -5,7 +5,8 @@ from __future__ import annotations
 from collections.abc import Mapping
 from types import MappingProxyType
 
-from heapkit.kinds.dary import BinaryHeap, DaryHeap
+from heapkit.kinds.binary import BinaryHeap
+from heapkit.kinds.dary import DaryHeap
 from heapkit.kinds.pairing import PairingHeap
 
 __all__ = ["DEFAULT", "KINDS", "BinaryHeap", "DaryHeap", "PairingHeap", "new"]
