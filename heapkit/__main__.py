@@ -11,6 +11,7 @@ from collections.abc import Sequence
 from typing import Any
 
 import heapkit
+from heapkit.bench.cli import add_parser as add_bench_parser
 
 
 def _demo(args: argparse.Namespace) -> int:
@@ -40,6 +41,7 @@ def main(argv: Sequence[str] | None = None) -> int:
     sub = parser.add_subparsers(dest="command", required=True)
     demo = sub.add_parser("demo", help="run an invented dispatch workload through every kind")
     demo.set_defaults(run=_demo)
+    add_bench_parser(sub)
     args = parser.parse_args(argv)
     return int(args.run(args))
 
