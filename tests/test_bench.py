@@ -23,12 +23,12 @@ from tests.kinds import NAMES
 SCALE = 0.005
 
 
-@functools.lru_cache(maxsize=None)
+@functools.cache
 def _data(name: str) -> Any:
     return WORKLOADS[name].make(SCALE)
 
 
-@functools.lru_cache(maxsize=None)
+@functools.cache
 def _baseline(name: str) -> Any:
     return WORKLOADS[name].baseline(_data(name))
 
@@ -65,7 +65,8 @@ def test_baseline_distances_match_scipy(name: str) -> None:
     got = _baseline(name)
     # Source: scipy.sparse.csgraph.dijkstra on the same graph (self-loops do not matter).
     assert len(got) == len(want)
-    assert all(math.isclose(a, b, rel_tol=1e-12, abs_tol=1e-12) or a == b for a, b in zip(got, want, strict=True))
+    pairs = zip(got, want, strict=True)
+    assert all(a == b or math.isclose(a, b, rel_tol=1e-12, abs_tol=1e-12) for a, b in pairs)
 
 
 @pytest.mark.parametrize("name", [n for n in WORKLOADS if n.startswith("sort")])
@@ -85,7 +86,7 @@ def test_scheduler_mix_has_every_operation() -> None:
 N = 2000
 
 
-@functools.lru_cache(maxsize=None)
+@functools.cache
 def _counts() -> dict[str, int]:
     return comparisons(heapkit.KINDS, N)
 
