@@ -11,7 +11,9 @@ Bounds (worst-case)
 push, decrease_key: at most ``floor(log2 n)`` comparisons.  pop: bottom-up, about
 ``log2 n`` comparisons (one per level down, then usually one or two back up),
 the same count as CPython's ``heapq`` for the same keys.  Everything else is
-:class:`~heapkit.kinds.dary.DaryHeap`'s.
+:class:`~heapkit.kinds.dary.DaryHeap`'s.  push and decrease_key compare first,
+then move; pop moves while it compares (as ``heapq`` does) and, if a comparison
+raises, moves every entry back before the exception propagates.
 
 Sources: J. W. J. Williams, "Algorithm 232: Heapsort", CACM 7 (1964); the
 bottom-up sift as in Knuth, TAOCP vol. 3, ex. 5.2.3-18, and ``Lib/heapq.py``.

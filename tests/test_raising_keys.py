@@ -1,6 +1,7 @@
-"""The speed-tuned hot paths (push, pop, decrease_key, ... written inline) keep the
-failure rule: if a key's ``<`` raises at any point, the heap afterwards holds the
-same entries, every live handle is still live, and ``heapkit.check`` passes.
+"""The failure rule, on every kind (written for the speed-tuned hot paths, whose
+links and moves are inlined): if a key's ``<`` raises at any point, the heap
+afterwards holds the same entries, every live handle is still live, and
+``heapkit.check`` passes.
 
 Each operation is tried with the k-th comparison raising, for every k until the
 operation completes without reaching it."""
