@@ -1,48 +1,34 @@
-"""Command line: ``python -m heapkit demo``."""
+"""Command line: ``python -m heapkit {demo,replay,kinds,bench}``.
+
+Exit codes: 0 ok, 1 a check or bound failed, 2 bad usage or a bad input file.
+"""
 
 from __future__ import annotations
 
 import argparse
-import itertools
-import random
 import sys
-import time
 from collections.abc import Sequence
-from typing import Any
 
-import heapkit
 from heapkit.bench.cli import add_parser as add_bench_parser
+from heapkit.commands import demo, kinds, replay
 
 
-def _demo(args: argparse.Namespace) -> int:
-    """Push an invented dispatch workload through every kind and print a table."""
-    rng = random.Random(7)
-    jobs = [(rng.uniform(0, 100), f"job-{i}") for i in range(2000)]
-    print(f"{'kind':<14}{'pops':>8}{'seconds':>10}  check")
-    for name in sorted(heapkit.KINDS):
-        heap: Any = heapkit.new(name)
-        t0 = time.perf_counter()
-        handles = [heap.push(k, v) for k, v in jobs]
-        for h in handles[::5]:
-            heap.decrease_key(h, h.key / 2)
-        for h in handles[1::9]:
-            heap.remove(h)
-        shape = heapkit.check(heap)
-        popped = [heap.pop() for _ in range(len(heap))]
-        dt = time.perf_counter() - t0
-        ordered = all(not (b[0] < a[0]) for a, b in itertools.pairwise(popped))
-        print(f"{name:<14}{len(popped):>8}{dt:>10.4f}  {'ok' if ordered else 'OUT OF ORDER'} "
-              f"({shape.size} entries checked)")
-    return 0
+def parser() -> argparse.ArgumentParser:
+    p = argparse.ArgumentParser(
+        prog="python -m heapkit",
+        description="Addressable priority queues: demo, trace replay across kinds, benchmark.",
+        epilog="exit codes: 0 ok, 1 a check or bound failed, 2 bad usage or input",
+    )
+    sub = p.add_subparsers(dest="command", required=True, metavar="COMMAND")
+    demo.add_parser(sub)
+    replay.add_parser(sub)
+    kinds.add_parser(sub)
+    add_bench_parser(sub)
+    return p
 
 
 def main(argv: Sequence[str] | None = None) -> int:
-    parser = argparse.ArgumentParser(prog="heapkit", description=heapkit.__doc__)
-    sub = parser.add_subparsers(dest="command", required=True)
-    demo = sub.add_parser("demo", help="run an invented dispatch workload through every kind")
-    demo.set_defaults(run=_demo)
-    add_bench_parser(sub)
-    args = parser.parse_args(argv)
+    args = parser().parse_args(argv)
     return int(args.run(args))
 
 

@@ -21,6 +21,29 @@ A kind subclasses :class:`HeapBase` and keeps, in its own module, beside its cod
   iteratively, calling ``report.fail(rule, handle, path, detail)``; return the
   figures of :class:`heapkit.Shape` (``size, roots, height, max_degree, marked,
   potential, details``);
+* optional, for checked mode's incremental checks (without them every check
+  is a full ``_survey``):
+
+  - ``_touched(op, handle) -> Any``: called just before ``op`` (``push``
+    with handle None, ``pop`` None, ``decrease_key``/``change_key``/``remove``
+    with a handle live in this heap, ``meld`` with the other heap, which is
+    also how ``extend`` ends); cheap, at most O(the op's own work).  Returns
+    what the op may change (nodes, positions), handed back as ``touched``;
+  - ``_survey_local(report, touched, handle)``: called just after the op
+    (``handle``: the handle pushed/changed/removed, the other heap for meld,
+    None for pop).  Checks the kind's rules around ``touched`` (parent/child
+    order, link symmetry, ownership, marks/ranks where local) and the
+    root/min pointer, reporting like ``_survey`` (it may run ``_survey`` itself
+    when the op changed everything).  Every corruption it can miss, the next
+    full ``_survey`` must find;
+
+* optional, for ``heapkit.to_dot``: ``_dot_edges()`` yielding ``(parent or
+  None, node, extra label)`` for every entry, a parent before its children,
+  iteratively (``extra``: e.g. ``"degree 3"``, ``"rank 2, marked"``);
+* modes (checked, audit) switch ``heap.__class__`` to a cached subclass
+  marked by a class attribute ``_layer = "<mode>"`` and keep per-heap state in
+  ``heap._ext[<mode>]`` (``_ext`` is None or a dict); each restores exactly
+  the class it replaced;
 * class attributes ``KIND`` (its name in ``heapkit.KINDS``), ``RULES``
   (rule name -> what it demands), ``WORST_CASE`` (bounds are worst-case, not
   amortized), ``COST_UNIT``, ``POTENTIAL`` (text) and ``PHI_C``.

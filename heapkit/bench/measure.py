@@ -260,6 +260,11 @@ def growth(
     return out
 
 
+def _feature(name: str) -> Any:
+    """A public heapkit function that may not exist in every version (checked, audit)."""
+    return vars(heapkit)[name]
+
+
 @contextlib.contextmanager
 def _mode(mode: str, name: str, cls: type) -> Iterator[Callable[[], Any]]:
     """A factory of heaps of kind ``name`` (class ``cls``) in ``mode``:
@@ -269,14 +274,13 @@ def _mode(mode: str, name: str, cls: type) -> Iterator[Callable[[], Any]]:
     elif mode == "new":
         yield lambda: heapkit.new(name)
     elif mode == "cycled":
-        checked = heapkit.checked  # type: ignore[attr-defined]
-        unchecked = heapkit.unchecked  # type: ignore[attr-defined]
+        checked, unchecked = _feature("checked"), _feature("unchecked")
         yield lambda: unchecked(checked(cls()))
     elif mode == "checked":
-        checked = heapkit.checked  # type: ignore[attr-defined]
+        checked = _feature("checked")
         yield lambda: checked(cls())
     else:
-        audit = heapkit.audit  # type: ignore[attr-defined]
+        audit = _feature("audit")
         with contextlib.ExitStack() as stack:
 
             def make() -> Any:

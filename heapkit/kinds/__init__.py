@@ -6,21 +6,35 @@ from collections.abc import Mapping
 from types import MappingProxyType
 
 from heapkit.kinds.binary import BinaryHeap
+from heapkit.kinds.binomial import BinomialHeap
 from heapkit.kinds.dary import DaryHeap
+from heapkit.kinds.fibonacci import FibonacciHeap
+from heapkit.kinds.lazy import LazyHeap
 from heapkit.kinds.pairing import PairingHeap
+from heapkit.kinds.rank_pairing import RankPairingHeap
 
-__all__ = ["DEFAULT", "KINDS", "BinaryHeap", "DaryHeap", "PairingHeap", "new"]
+__all__ = [
+    "DEFAULT",
+    "KINDS",
+    "BinaryHeap",
+    "BinomialHeap",
+    "DaryHeap",
+    "FibonacciHeap",
+    "LazyHeap",
+    "PairingHeap",
+    "RankPairingHeap",
+    "new",
+]
 
 KINDS: Mapping[str, type] = MappingProxyType(
     {
-        BinaryHeap.KIND: BinaryHeap,
-        DaryHeap.KIND: DaryHeap,
-        PairingHeap.KIND: PairingHeap,
+        cls.KIND: cls
+        for cls in (BinaryHeap, BinomialHeap, DaryHeap, FibonacciHeap, LazyHeap, PairingHeap, RankPairingHeap)
     }
 )
 
 #: The kind the benchmark shows fastest on the decrease-key workloads.
-DEFAULT: str = "pairing"
+DEFAULT: str = "lazy"
 
 
 def new(name: str | None = None, /, **options: object) -> object:

@@ -38,6 +38,7 @@ from heapkit._core import (
     nan_error,
     upward_error,
 )
+from heapkit.kinds import dary_checks as _dc
 from heapkit.protocol import Handle
 
 __all__ = ["DaryHeap"]
@@ -386,7 +387,7 @@ class DaryHeap(HeapBase[K, V], Generic[K, V]):
         b = other._a
         n, m = len(a), len(b)
         tok = self._tok
-        if m * max(1, n.bit_length()) < n + m:
+        if self._meld_by_pushes(n, m):
             # A few entries into many: push them, undoing in reverse on failure.
             done = 0
             try:
@@ -418,6 +419,14 @@ class DaryHeap(HeapBase[K, V], Generic[K, V]):
                 raise
         for x in b:
             x._tok = tok
+
+    @staticmethod
+    def _meld_by_pushes(n: int, m: int) -> bool:
+        """Does meld push ``m`` entries one by one into ``n`` (else heapify all)?"""
+        return m * max(1, n.bit_length()) < n + m
+
+    # Checked mode and to_dot hooks (see dary_checks.py and the SPI in _core.py).
+    _touched, _survey_local, _dot_edges = _dc.touched, _dc.survey_local, _dc.dot_edges
 
     # Precondition: x was the last entry pushed and nothing moved since.
     # Restores: the array as it was before that push.  No comparison.
@@ -482,15 +491,16 @@ class DaryHeap(HeapBase[K, V], Generic[K, V]):
         if len(a) != self._n:
             report.fail("size", None, [], f"the array holds {len(a)} entries but len is {self._n}")
         n = len(a)
+        # span: how many entries levels 0..height hold; stop once they hold n.
         height = 0
         span = 1
-        while span < n + 1 and n:
+        while span < n:
             span = span * d + 1
             height += 1
         return {
             "size": n,
             "roots": 1 if n else 0,
-            "height": max(0, height - 1),
+            "height": height,
             "max_degree": min(d, max(0, n - 1)),
             "marked": None,
             "potential": None,

@@ -34,6 +34,8 @@ from heapkit._core import (
     nan_error,
     upward_error,
 )
+from heapkit.kinds import pairing_checks as _pc
+from heapkit.kinds.pairing_links import _adopt, _cut, _hang, _link, _pair_children
 from heapkit.protocol import Handle
 
 __all__ = ["PairingHeap"]
@@ -58,141 +60,6 @@ class _Node(HandleBase[K, V]):
         self._child: Any = None
         self._next: Any = None
         self._prev: Any = None
-
-
-# Precondition: a and b are detached roots (prev and next are None).
-# Restores: one detached root holding both trees; compares before it links.
-def _link(a: Any, b: Any) -> Any:
-    if b._k < a._k:
-        a, b = b, a
-    c = a._child
-    b._next = c
-    if c is not None:
-        c._prev = b
-    b._prev = a
-    a._child = b
-    return a
-
-
-# Precondition: trees are detached roots, rest is a sibling chain or None.
-# Restores: all of them are parent's children again (order: trees, then rest).
-def _adopt(parent: Any, trees: list[Any], rest: Any) -> None:
-    head = rest
-    for t in reversed(trees):
-        t._next = head
-        if head is not None:
-            head._prev = t
-        head = t
-    parent._child = head
-    if head is not None:
-        head._prev = parent
-
-
-# The trees of a pairing pass so far, left to right: ``last`` and the trees
-# before it, chained through their ``_prev`` links (see _pair_children).
-def _chained(last: Any) -> list[Any]:
-    trees = []
-    while last is not None:
-        trees.append(last)
-        last = last._prev
-    trees.reverse()
-    return trees
-
-
-# Precondition: parent is a node whose children are heap-ordered trees.
-# Restores: returns those children merged into one detached tree (two-pass
-# pairing) and leaves parent childless.  If a comparison raises, every tree goes
-# back under parent (which is no larger than any of them) before it propagates.
-# Links are written inline (no _link calls), the first pass chains its winners
-# through their free _prev links instead of a list, and a winner's prev/next
-# are cleared once, on the final tree: pop 17% faster on random keys (measured).
-def _pair_children(parent: Any) -> Any:
-    x = parent._child
-    if x is None:
-        return None
-    last = None
-    try:
-        while x is not None:
-            y = x._next
-            if y is None:
-                x._prev = last
-                last = x
-                break
-            rest = y._next
-            if y._k < x._k:
-                c = y._child
-                x._next = c
-                if c is not None:
-                    c._prev = x
-                x._prev = y
-                y._child = x
-                y._prev = last
-                last = y
-            else:
-                c = x._child
-                y._next = c
-                if c is not None:
-                    c._prev = y
-                y._prev = x
-                x._child = y
-                x._prev = last
-                last = x
-            x = rest
-    except BaseException:
-        _adopt(parent, _chained(last), x)
-        raise
-    acc: Any = last
-    a = acc._prev
-    try:
-        while a is not None:
-            if acc._k < a._k:
-                nxt = a._prev
-                win, lose = acc, a
-            else:
-                nxt = a._prev
-                win, lose = a, acc
-            # lose (not smaller) becomes win's leftmost child; win is the new acc.
-            c = win._child
-            lose._next = c
-            if c is not None:
-                c._prev = lose
-            lose._prev = win
-            win._child = lose
-            acc = win
-            a = nxt
-    except BaseException:
-        _adopt(parent, [*_chained(a), acc], None)
-        raise
-    acc._prev = None
-    acc._next = None
-    parent._child = None
-    return acc
-
-
-# Precondition: x is a non-root node.  Restores: x is detached (its subtree
-# goes with it), its former siblings and parent linked around the gap.
-def _cut(x: Any) -> None:
-    p = x._prev
-    n = x._next
-    if p._child is x:
-        p._child = n
-    else:
-        p._next = n
-    if n is not None:
-        n._prev = p
-    x._prev = None
-    x._next = None
-
-
-# Precondition: root is the root, x a detached tree no smaller than root.
-# Restores: x is root's leftmost child.  No comparison.
-def _hang(root: Any, x: Any) -> None:
-    c = root._child
-    x._next = c
-    if c is not None:
-        c._prev = x
-    x._prev = root
-    root._child = x
 
 
 class PairingHeap(HeapBase[K, V], Generic[K, V]):
@@ -486,6 +353,9 @@ class PairingHeap(HeapBase[K, V], Generic[K, V]):
             if n:
                 stack.append([x, n, None])
 
+    # Checked mode and to_dot hooks (see pairing_checks.py and the SPI in _core.py).
+    _touched, _survey_local, _dot_edges = _pc.touched, _pc.survey_local, _pc.dot_edges
+
     def _map_order(self, fn: Callable[[Any, Any], Any]) -> None:
         for x in self._handles():
             x._k = fn(x._k, x._key)
@@ -531,7 +401,7 @@ class PairingHeap(HeapBase[K, V], Generic[K, V]):
                 c = c._next
             max_degree = max(max_degree, degree)
         if count != self._n:
-            report.fail("size", root, [], f"{count} nodes reachable but len is {self._n}")
+            report.fail("size", None, [], f"{count} nodes reachable but len is {self._n}")
         return {
             "size": count,
             "roots": 0 if root is None else 1,

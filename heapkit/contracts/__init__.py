@@ -1,0 +1,33 @@
+"""Contracts: ``check``, checked mode, the ``HEAPKIT_DEBUG`` switch and ``to_dot``.
+
+The modules, one idea each:
+
+* :mod:`~heapkit.contracts.report`: ``check`` and the ``Report`` a kind's
+  ``_survey`` fills in;
+* :mod:`~heapkit.contracts.mode`: ``checked`` / ``unchecked`` (the checking
+  layer, incremental checks, the re-entrancy guard);
+* :mod:`~heapkit.contracts.history`: the operation history and its replay;
+* :mod:`~heapkit.contracts.switch`: ``HEAPKIT_DEBUG``;
+* :mod:`~heapkit.contracts.dot`: ``to_dot``.
+"""
+
+from __future__ import annotations
+
+import heapkit.contracts.switch  # noqa: F401  (reads HEAPKIT_DEBUG once, at import)
+from heapkit.contracts.dot import to_dot
+from heapkit.contracts.history import HistoryError, replay
+from heapkit.contracts.mode import checked, unchecked
+from heapkit.contracts.report import LIMIT, PROTOCOL_RULES, Report, check, problem_prefix
+
+__all__ = [
+    "LIMIT",
+    "PROTOCOL_RULES",
+    "HistoryError",
+    "Report",
+    "check",
+    "checked",
+    "problem_prefix",
+    "replay",
+    "to_dot",
+    "unchecked",
+]
