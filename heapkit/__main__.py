@@ -9,6 +9,7 @@ import argparse
 import sys
 from collections.abc import Sequence
 
+from heapkit.bench.cli import add_parser as add_bench_parser
 from heapkit.commands import demo, kinds, replay
 
 
@@ -22,6 +23,7 @@ def parser() -> argparse.ArgumentParser:
     demo.add_parser(sub)
     replay.add_parser(sub)
     kinds.add_parser(sub)
+    add_bench_parser(sub)
     return p
 
 

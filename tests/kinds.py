@@ -20,8 +20,8 @@ KEYS = st.one_of(
 
 
 def monotone(name: str) -> bool:
-    """Kinds that take only keys at or above the last popped (radix)."""
-    return name == "radix"
+    """Kinds that take only keys at or above the last popped (radix): ``MONOTONE = True``."""
+    return bool(getattr(heapkit.KINDS[name], "MONOTONE", False))
 
 
 def make(name: str, stable: bool = False, pairs: Any = ()) -> Any:

@@ -5,8 +5,9 @@ from __future__ import annotations
 from collections.abc import Mapping
 from types import MappingProxyType
 
+from heapkit.kinds.binary import BinaryHeap
 from heapkit.kinds.binomial import BinomialHeap
-from heapkit.kinds.dary import BinaryHeap, DaryHeap
+from heapkit.kinds.dary import DaryHeap
 from heapkit.kinds.fibonacci import FibonacciHeap
 from heapkit.kinds.hollow import HollowHeap
 from heapkit.kinds.lazy import LazyHeap

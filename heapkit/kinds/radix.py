@@ -104,6 +104,8 @@ class RadixHeap(HeapBase[int, V], Generic[V]):
     __slots__ = ("_buckets", "_last")
 
     KIND: ClassVar[str] = "radix"
+    #: Takes only monotone non-negative int keys (the benchmark and tools select by this).
+    MONOTONE: ClassVar[bool] = True
     RULES: ClassVar[dict[str, str]] = {
         "key-type": "every key is a non-negative int (not a bool)",
         "monotone": "no key is below the last popped key",

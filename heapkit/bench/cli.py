@@ -1,0 +1,271 @@
+"""``python -m heapkit bench``: run the workloads, print a table, optionally save JSON.
+
+Exit codes: 0 done, 1 a kind's result differed from the baseline's, 2 bad usage.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import math
+import os
+import platform
+import statistics
+import sys
+import time
+from collections.abc import Callable, Mapping
+from typing import Any
+
+import heapkit
+from heapkit.bench import measure
+from heapkit.bench.workloads import WORKLOADS
+
+__all__ = ["SECTIONS", "add_parser", "run", "suggest_default"]
+
+#: Reports beyond the timed workloads; each can be asked for like a workload.
+SECTIONS = {
+    "comparisons": "key comparisons for n pushes + n pops, per log2(n!)",
+    "memory": "bytes per entry (tracemalloc, handles included)",
+    "growth": "time per operation as n grows",
+    "contracts": "cost of the contract modes on Dijkstra, to a plain heap",
+}
+
+#: (full, quick) sizes of each section and the scale of the workloads.
+SIZES: dict[str, tuple[Any, Any]] = {
+    "scale": (1.0, 0.05),
+    "repeat": (5, 3),
+    "comparisons": (100_000, 10_000),
+    "memory": (100_000, 10_000),
+    "growth": ([10_000, 100_000, 1_000_000], [1_000, 10_000]),
+    "contracts": (0.2, 0.05),
+    "contracts-small": (0.01, 0.002),
+}
+
+
+def add_parser(subparsers: Any) -> argparse.ArgumentParser:
+    """Add the ``bench`` subcommand to an ``argparse`` subparsers object.
+
+    >>> import argparse
+    >>> p = argparse.ArgumentParser(); sub = p.add_subparsers(dest="command")
+    >>> _ = add_parser(sub)
+    >>> p.parse_args(["bench", "--quick", "--repeat", "2"]).repeat
+    2
+    """
+    names = [*WORKLOADS, *SECTIONS]
+    p: argparse.ArgumentParser = subparsers.add_parser(
+        "bench",
+        help="time every kind against the heapq idiom",
+        description="Time every kind against the heapq entry-invalidation idiom, side by side, "
+        "and report the median ratio kind/idiom per workload (below 1: the kind is faster).",
+        epilog="workloads and sections: " + ", ".join(names),
+    )
+    p.add_argument("--workload", action="append", metavar="NAME",
+                   help="a workload or section to run (repeat or comma-separate; default: all)")
+    p.add_argument("--kinds", metavar="K1,K2", help="kinds to run (default: every kind in heapkit.KINDS)")
+    p.add_argument("--quick", action="store_true", help="small sizes (about 1/20), fewer repetitions")
+    p.add_argument("--json", metavar="PATH", help="also write every figure to PATH as JSON")
+    p.add_argument("--repeat", type=int, metavar="N", help="repetitions per kind (default 5, quick 3)")
+    p.set_defaults(run=run, bench_parser=p)
+    return p
+
+
+def _fail_usage(args: argparse.Namespace, message: str) -> int:
+    parser: argparse.ArgumentParser = args.bench_parser
+    parser.print_usage(sys.stderr)
+    print(f"heapkit bench: error: {message}", file=sys.stderr)
+    return 2
+
+
+def _progress() -> Callable[[str], None]:
+    start = time.perf_counter()
+    tty = sys.stderr.isatty()
+
+    def say(msg: str) -> None:
+        line = f"[{time.perf_counter() - start:7.1f}s] {msg}"
+        if tty:
+            sys.stderr.write("\r" + line[:100].ljust(100))
+        else:
+            sys.stderr.write(line + "\n")
+        sys.stderr.flush()
+
+    return say
+
+
+def _cell(value: float | str | None, width: int, fmt: str = ".2f") -> str:
+    if value is None:
+        return "-".rjust(width)
+    if isinstance(value, str):
+        return value.rjust(width)
+    return format(value, fmt).rjust(width)
+
+
+def suggest_default(results: Mapping[str, Mapping[str, Any]]) -> str | None:
+    """The kind with the smallest geometric-mean ratio over the decrease-key workloads
+    it ran correctly; only kinds that ran all of them compete.
+
+    >>> suggest_default({"dijkstra-grid": {"kinds": {"a": {"ratio": 2.0, "ok": True},
+    ...                                              "b": {"ratio": 1.5, "ok": True}}}})
+    'b'
+    """
+    dk = [name for name in results if name in WORKLOADS and WORKLOADS[name].decrease_key]
+    if not dk:
+        return None
+    scores: dict[str, list[float]] = {}
+    for name in dk:
+        for kind, cell in results[name]["kinds"].items():
+            if cell["ok"] and cell["ratio"] is not None:
+                scores.setdefault(kind, []).append(cell["ratio"])
+    full = {k: statistics.geometric_mean(v) for k, v in scores.items() if len(v) == len(dk)}
+    return min(full, key=full.__getitem__) if full else None
+
+
+def run(args: argparse.Namespace) -> int:
+    """Run the benchmark the arguments ask for; print the report on stdout."""
+    wanted = [n for item in (args.workload or []) for n in item.split(",") if n]
+    unknown = [n for n in wanted if n not in WORKLOADS and n not in SECTIONS]
+    if unknown:
+        return _fail_usage(args, f"unknown workload {unknown[0]!r}; choose from "
+                           + ", ".join([*WORKLOADS, *SECTIONS]))
+    if not wanted:
+        wanted = [*WORKLOADS, *SECTIONS]
+    names = [n for n in (args.kinds or "").split(",") if n] or list(heapkit.KINDS)
+    bad = [n for n in names if n not in heapkit.KINDS]
+    if bad:
+        return _fail_usage(args, f"unknown kind {bad[0]!r}; known kinds: " + ", ".join(heapkit.KINDS))
+    if args.repeat is not None and args.repeat < 1:
+        return _fail_usage(args, f"--repeat must be at least 1, got {args.repeat}")
+    q = 1 if args.quick else 0
+    repeat = args.repeat or SIZES["repeat"][q]
+    kinds = {n: heapkit.KINDS[n] for n in names}
+    say = _progress()
+    if os.environ.get("HEAPKIT_DEBUG"):
+        say("warning: HEAPKIT_DEBUG is set, so heaps are checked or audited; timings include that")
+    report: dict[str, Any] = {
+        "meta": {
+            "python": platform.python_version(), "machine": platform.machine(),
+            "cpus": os.cpu_count(), "quick": bool(args.quick), "repeat": repeat,
+            "scale": SIZES["scale"][q], "kinds": names, "clock": "time.process_time, gc paused",
+        },
+        "workloads": {},
+    }
+    failed = False
+    for name in [n for n in wanted if n in WORKLOADS]:
+        w = WORKLOADS[name]
+        say(f"{name}: making data")
+        data = w.make(SIZES["scale"][q])
+        rows = measure.time_workload(w, data, kinds, repeat, say)
+        cells = {k: {"ratio": r.ratio, "ok": r.ok, "ratios": r.ratios, "kind_s": r.kind_s,
+                     "base_s": r.base_s} for k, r in rows.items()}
+        good = {k: r.ratio for k, r in rows.items() if r.ok}
+        failed = failed or not all(r.ok for r in rows.values())
+        base = [t for r in rows.values() for t in r.base_s]
+        report["workloads"][name] = {
+            "what": w.what, "baseline_s": statistics.median(base) if base else None,
+            "kinds": cells, "fastest": min(good, key=good.__getitem__) if good else None,
+        }
+    if "comparisons" in wanted:
+        n = SIZES["comparisons"][q]
+        say(f"comparisons: n = {n}")
+        counts = measure.comparisons(kinds, n)
+        lower = measure.log2_factorial(n)
+        report["comparisons"] = {"n": n, "log2_factorial": lower, "counts": counts,
+                                 "per_log2_factorial": {k: c / lower for k, c in counts.items()}}
+    if "memory" in wanted:
+        n = SIZES["memory"][q]
+        say(f"memory: n = {n}")
+        report["memory"] = {"n": n, "bytes_per_entry": measure.bytes_per_entry(kinds, n)}
+    if "growth" in wanted:
+        sizes = SIZES["growth"][q]
+        report["growth"] = {"sizes": sizes, "ns_per_op": measure.growth(kinds, sizes, say)}
+    if "contracts" in wanted:
+        w = WORKLOADS["dijkstra-sparse"]
+        data = w.make(SIZES["contracts"][q])
+        small = w.make(SIZES["contracts-small"][q])
+        report["contracts"] = {"workload": w.name, "scale": SIZES["contracts"][q],
+                               "small_scale": SIZES["contracts-small"][q], "modes": measure.MODES,
+                               "ratios": measure.modes(kinds, w, data, small, repeat, say)}
+    report["suggested_default"] = suggest_default(report["workloads"])
+    if sys.stderr.isatty():
+        sys.stderr.write("\n")
+    print(render(report))
+    if args.json:
+        with open(args.json, "w", encoding="utf-8") as f:
+            json.dump(_jsonable(report), f, indent=1)
+    return 1 if failed else 0
+
+
+def _jsonable(x: Any) -> Any:
+    if isinstance(x, float) and not math.isfinite(x):
+        return None
+    if isinstance(x, dict):
+        return {str(k): _jsonable(v) for k, v in x.items()}
+    if isinstance(x, list | tuple):
+        return [_jsonable(v) for v in x]
+    return x
+
+
+def render(report: Mapping[str, Any]) -> str:
+    """The report as text: one table per section, the fastest kind per workload last."""
+    meta = report["meta"]
+    kinds: list[str] = meta["kinds"]
+    size = "quick: sizes x 1/20 of those named" if meta["quick"] else "full sizes"
+    out = [
+        f"heapkit bench ({size}): python {meta['python']}, {meta['cpus']} cpus; CPU time, gc paused;",
+        f"median of {meta['repeat']} ratios kind / heapq idiom (below 1.00: the kind is faster)",
+    ]
+    wl: Mapping[str, Any] = report["workloads"]
+    if wl:
+        width = max(7, *(len(k) + 1 for k in kinds))
+        out += ["", "workload".ljust(17) + "idiom s".rjust(9)
+                + "".join(k.rjust(width) for k in kinds) + "  fastest"]
+        for name, r in wl.items():
+            cells = []
+            for k in kinds:
+                c = r["kinds"].get(k)
+                cells.append(_cell(None if c is None else (c["ratio"] if c["ok"] else "WRONG"), width))
+            out.append(name.ljust(17) + _cell(r["baseline_s"], 9, ".3f") + "".join(cells)
+                       + "  " + (r["fastest"] or "-"))
+        out.append("  (- : the kind cannot take these keys; WRONG: result differs from the idiom's)")
+        for name, r in wl.items():
+            out.append(f"  {name}: {r['what']}")
+    if "comparisons" in report:
+        c = report["comparisons"]
+        out += ["", f"key comparisons, n = {c['n']} pushes then pops of random keys, per log2(n!) = "
+                f"{c['log2_factorial']:.0f} (sorting lower bound, Knuth TAOCP 3, 5.3.1)"]
+        out.append("  " + "  ".join(f"{k} {v:.3f}" for k, v in c["per_log2_factorial"].items()))
+    if "memory" in report:
+        m = report["memory"]
+        out += ["", f"bytes per entry, n = {m['n']} (tracemalloc; handles and finder included)"]
+        out.append("  " + "  ".join(f"{k} {v:.0f}" for k, v in m["bytes_per_entry"].items()))
+    if "growth" in report:
+        g = report["growth"]
+        sizes = g["sizes"]
+        out += ["", "ns per operation, n pushes then n pops of random keys, as n grows"]
+        out.append("  " + "kind".ljust(14) + "".join(f"n={n:,}".rjust(14) for n in sizes) + "    last/first")
+        for k, vals in g["ns_per_op"].items():
+            out.append("  " + k.ljust(14) + "".join(f"{v:14.0f}" for v in vals)
+                       + f"{vals[-1] / vals[0]:14.2f}")
+    if "contracts" in report:
+        c = report["contracts"]
+        modes = list(c["modes"])
+        out += ["", f"contract modes on {c['workload']}: time / same kind's plain heap (scale "
+                f"{c['scale']}; checked and audited at {c['small_scale']})"]
+        out.append("  " + "kind".ljust(14) + "".join(m.rjust(10) for m in modes))
+        for k, row in c["ratios"].items():
+            out.append("  " + k.ljust(14) + "".join(_cell(row.get(m), 10) for m in modes))
+        out += [f"  {m}: {what}" for m, what in c["modes"].items()]
+        out.append("  n/a: that feature is not in this heapkit; failed: the mode raised an error")
+    if wl:
+        out += ["", "fastest kind per workload:"]
+        for name, r in wl.items():
+            f = r["fastest"]
+            if f is None:
+                out.append(f"  {name}: no kind ran correctly")
+                continue
+            ratio = r["kinds"][f]["ratio"]
+            note = "faster than the idiom" if ratio < 1 else "the idiom is faster"
+            out.append(f"  {name}: {f} ({ratio:.2f}x the idiom; {note})")
+        if report.get("suggested_default"):
+            out.append(f"suggested heapkit.DEFAULT (fastest on the decrease-key workloads): "
+                       f"{report['suggested_default']}")
+    return "\n".join(out)

@@ -1,0 +1,351 @@
+"""Measuring: timed runs side by side with the baseline, comparison counts, memory,
+growth, and the cost of the contract modes.
+
+Times are CPU time of this process (``time.process_time``), so other programs on
+a shared machine disturb them less, with the garbage collector paused during
+each run as ``timeit`` does.  Each repetition runs the baseline and the kind one
+after the other (which goes first alternates); the figure reported is the
+**median of the per-repetition ratios** kind / baseline.
+"""
+
+from __future__ import annotations
+
+import contextlib
+import gc
+import heapq
+import itertools
+import math
+import random
+import statistics
+import time
+import tracemalloc
+from collections.abc import Callable, Iterator, Mapping
+from dataclasses import dataclass, field
+from typing import Any, ClassVar
+
+import heapkit
+from heapkit.bench import idiom
+from heapkit.bench.workloads import WORKLOADS, Workload, sort
+
+__all__ = [
+    "Counted",
+    "Row",
+    "bytes_per_entry",
+    "comparisons",
+    "growth",
+    "log2_factorial",
+    "modes",
+    "time_workload",
+]
+
+Progress = Callable[[str], None]
+
+
+def _quiet(_: str) -> None:
+    pass
+
+
+def timed(fn: Callable[[], Any]) -> tuple[float, Any]:
+    """Run ``fn`` once with the collector paused; return (CPU seconds, its result)."""
+    gc.collect()
+    was = gc.isenabled()
+    gc.disable()
+    try:
+        t0 = time.process_time()
+        out = fn()
+        return time.process_time() - t0, out
+    finally:
+        if was:
+            gc.enable()
+
+
+@dataclass
+class Row:
+    """One kind on one workload: its times, the baseline's, and the ratios."""
+
+    kind: str
+    kind_s: list[float] = field(default_factory=list)
+    base_s: list[float] = field(default_factory=list)
+    ratios: list[float] = field(default_factory=list)
+    ok: bool = True
+
+    @property
+    def ratio(self) -> float:
+        """Median of the per-repetition ratios kind / baseline."""
+        return statistics.median(self.ratios) if self.ratios else math.nan
+
+
+def time_workload(
+    w: Workload,
+    data: Any,
+    kinds: Mapping[str, type],
+    repeat: int,
+    progress: Progress = _quiet,
+) -> dict[str, Row]:
+    """Time every admitted kind against the baseline, ``repeat`` times, alternating.
+
+    The first run of each kind is also checked against the baseline's result.
+    """
+    rows: dict[str, Row] = {}
+    for name, cls in kinds.items():
+        if not w.admits(cls):
+            continue
+        row = rows[name] = Row(name)
+        for rep in range(repeat):
+            progress(f"{w.name}: {name} {rep + 1}/{repeat}")
+
+            def base_run() -> Any:
+                return w.baseline(data)
+
+            def kind_run(c: type = cls) -> Any:
+                return w.run(c, data)
+
+            if rep % 2 == 0:
+                tb, base = timed(base_run)
+                tk, got = timed(kind_run)
+            else:
+                tk, got = timed(kind_run)
+                tb, base = timed(base_run)
+            if rep == 0 and not w.same(got, base):
+                row.ok = False
+            row.base_s.append(tb)
+            row.kind_s.append(tk)
+            row.ratios.append(tk / tb if tb > 0 else math.inf)
+    return rows
+
+
+class Counted:
+    """A key that counts the ``<`` comparisons made on it (and has no other order).
+
+    >>> Counted.count = 0
+    >>> Counted(1) < Counted(2), Counted.count
+    (True, 1)
+    """
+
+    __slots__ = ("v",)
+    count: ClassVar[int] = 0
+
+    def __init__(self, v: float) -> None:
+        self.v = v
+
+    def __lt__(self, other: Counted) -> bool:
+        Counted.count += 1
+        return self.v < other.v
+
+
+def log2_factorial(n: int) -> float:
+    """log2(n!), the information-theoretic lower bound on comparisons to sort n keys
+    (Knuth, TAOCP vol. 3, sec. 5.3.1), computed as ``math.lgamma(n + 1) / math.log(2)``.
+
+    >>> round(log2_factorial(4), 6) == round(math.log2(24), 6)
+    True
+    """
+    return math.lgamma(n + 1) / math.log(2)
+
+
+def comparisons(kinds: Mapping[str, type], n: int, seed: int = 1) -> dict[str, int]:
+    """Key comparisons for n pushes then n pops of the same random keys, per kind and
+    for ``heapq`` itself (bare keys, under the name ``"heapq"``).  Deterministic.
+
+    >>> from heapkit import BinaryHeap
+    >>> c = comparisons({"binary": BinaryHeap}, 200)
+    >>> c["binary"] > 0 and c["heapq"] > 0
+    True
+    """
+    rng = random.Random(seed)
+    raw = [rng.randrange(10**9) for _ in range(n)]
+    out: dict[str, int] = {}
+    keys = [Counted(v) for v in raw]
+    Counted.count = 0
+    pq: list[Counted] = []
+    for k in keys:
+        heapq.heappush(pq, k)
+    while pq:
+        heapq.heappop(pq)
+    out["heapq"] = Counted.count
+    for name, cls in kinds.items():
+        if getattr(cls, "MONOTONE", False):
+            continue  # a radix heap files int keys by their bits; it does not use <
+        keys = [Counted(v) for v in raw]
+        heap: Any = cls()
+        Counted.count = 0
+        for i, k in enumerate(keys):
+            heap.push(k, i)
+        while heap:
+            heap.pop()
+        out[name] = Counted.count
+    return out
+
+
+def bytes_per_entry(kinds: Mapping[str, type], n: int) -> dict[str, float]:
+    """Memory the queue holds per entry after n pushes (handles included), by
+    ``tracemalloc``; keys and values are made beforehand so only the queue counts.
+    The baseline's figure (``"heapq idiom"``) counts its list, entries and finder.
+
+    >>> from heapkit import PairingHeap
+    >>> 0 < bytes_per_entry({"pairing": PairingHeap}, 1000)["pairing"] < 1000
+    True
+    """
+    rng = random.Random(2)
+    keys = [rng.randrange(10**9) for _ in range(n)]
+    values = list(range(n))
+    out: dict[str, float] = {}
+
+    def idiom_fill() -> Any:
+        counter = itertools.count()
+        pq: list[list[Any]] = []
+        finder: dict[int, list[Any]] = {}
+        for i in range(n):
+            entry = [keys[i], next(counter), values[i]]
+            finder[values[i]] = entry
+            heapq.heappush(pq, entry)
+        return pq, finder
+
+    def kind_fill(cls: type) -> Callable[[], Any]:
+        def fill() -> Any:
+            heap: Any = cls()
+            push = heap.push
+            for i in range(n):
+                handles[i] = push(keys[i], values[i])
+            return heap
+
+        return fill
+
+    handles: list[Any] = [None] * n
+    fills: dict[str, Callable[[], Any]] = {"heapq idiom": idiom_fill}
+    for name, cls in kinds.items():
+        fills[name] = kind_fill(cls)
+    for name, fill in fills.items():
+        gc.collect()
+        tracemalloc.start()
+        try:
+            before = tracemalloc.get_traced_memory()[0]
+            keep = fill()
+            after = tracemalloc.get_traced_memory()[0]
+        finally:
+            tracemalloc.stop()
+        out[name] = (after - before) / n
+        del keep
+        handles[:] = [None] * n
+    return out
+
+
+def growth(
+    kinds: Mapping[str, type], sizes: list[int], progress: Progress = _quiet
+) -> dict[str, list[float]]:
+    """Nanoseconds per operation for n pushes then n pops of random keys, at each
+    size (the best of a few runs; one run above 10^5), for the idiom and each kind.
+
+    >>> from heapkit import BinaryHeap
+    >>> g = growth({"binary": BinaryHeap}, [100, 200])
+    >>> len(g["binary"]), len(g["heapq idiom"])
+    (2, 2)
+    """
+    make = WORKLOADS["sort-random"].make
+    out: dict[str, list[float]] = {"heapq idiom": []}
+    for name in kinds:
+        out[name] = []
+    for n in sizes:
+        pairs = make(n / 100_000)
+        reps = 3 if n <= 100_000 else 1
+        progress(f"growth: n = {n}")
+        for name in out:
+            cls = kinds.get(name)
+
+            def once(c: type | None = cls, p: list[tuple[int, int]] = pairs) -> Any:
+                return idiom.sort(p) if c is None else sort(c, p)
+
+            best = min(timed(once)[0] for _ in range(reps))
+            out[name].append(best / (2 * n) * 1e9)
+    return out
+
+
+def _feature(name: str) -> Any:
+    """A public heapkit function that may not exist in every version (checked, audit)."""
+    return vars(heapkit)[name]
+
+
+@contextlib.contextmanager
+def _mode(mode: str, name: str, cls: type) -> Iterator[Callable[[], Any]]:
+    """A factory of heaps of kind ``name`` (class ``cls``) in ``mode``:
+    plain, new, cycled, checked, audited."""
+    if mode == "plain":
+        yield cls
+    elif mode == "new":
+        yield lambda: heapkit.new(name)
+    elif mode == "cycled":
+        checked, unchecked = _feature("checked"), _feature("unchecked")
+        yield lambda: unchecked(checked(cls()))
+    elif mode == "checked":
+        checked = _feature("checked")
+        yield lambda: checked(cls())
+    else:
+        audit = _feature("audit")
+        with contextlib.ExitStack() as stack:
+
+            def make() -> Any:
+                heap = cls()
+                stack.enter_context(audit(heap))
+                return heap
+
+            yield make
+
+
+#: The contract modes compared with a plain heap, and what each means.
+MODES = {
+    "new": "heapkit.new(kind) with HEAPKIT_DEBUG unset (contracts off)",
+    "cycled": "checked(...) then unchecked(...) (contracts switched off again)",
+    "checked": "heapkit.checked(heap): its rules checked after every operation",
+    "audited": "inside heapkit.audit(heap)",
+}
+
+
+def modes(
+    kinds: Mapping[str, type],
+    w: Workload,
+    data: Any,
+    small: Any,
+    repeat: int,
+    progress: Progress = _quiet,
+) -> dict[str, dict[str, float | str]]:
+    """Median ratio, per kind and mode, of ``w`` in that mode to ``w`` on a plain heap.
+
+    The cheap modes run on ``data``; checked and audited modes, which may cost
+    O(n) per operation, on ``small``.  A mode whose feature is missing
+    (``heapkit.checked``, ``heapkit.audit``) is reported as ``"n/a"``, one that
+    fails as ``"failed"``.
+    """
+    out: dict[str, dict[str, float | str]] = {}
+    for name, cls in kinds.items():
+        if not w.admits(cls):
+            continue
+        row: dict[str, float | str] = out.setdefault(name, {})
+        for mode in MODES:
+            need = {"cycled": "checked", "checked": "checked", "audited": "audit"}.get(mode)
+            if need is not None and not hasattr(heapkit, need):
+                row[mode] = "n/a"
+                continue
+            progress(f"contracts: {name} {mode}")
+            d = small if mode in ("checked", "audited") else data
+            ratios = []
+            try:
+                for rep in range(repeat):
+
+                    def run(f: Callable[[], Any], d: Any = d) -> Callable[[], Any]:
+                        return lambda: w.run(f, d)
+
+                    with _mode(mode, name, cls) as factory:
+                        if rep % 2:
+                            tm, got = timed(run(factory))
+                            tp, plain = timed(run(cls))
+                        else:
+                            tp, plain = timed(run(cls))
+                            tm, got = timed(run(factory))
+                    if not w.same(got, plain):
+                        raise ValueError("result differs from the plain heap's")
+                    ratios.append(tm / tp if tp > 0 else math.inf)
+            except Exception:  # a mode that fails is reported in the table, not fatal
+                row[mode] = "failed"
+                continue
+            row[mode] = statistics.median(ratios)
+    return out
