@@ -8,7 +8,7 @@ import sys
 import tempfile
 
 import heapkit
-from heapkit.commands.compare import as_json, compare, render
+from heapkit.commands.compare import as_json, compare, exit_code, render
 from heapkit.commands.scenario import record_scenario, tell
 
 
@@ -40,4 +40,4 @@ def run(args: argparse.Namespace) -> int:
         print(tell(story))
         print()
         print(render(rows))
-    return 0 if all(r.healthy for r in rows if r.suitable) else 1
+    return exit_code(rows)
