@@ -114,6 +114,10 @@ Ops = list[tuple[int, dict[str, Any]]]
 _UNKNOWN: Any = object()
 
 
+def _maker(cls: Callable[[], Any]) -> Callable[[str], Any]:
+    return lambda kind: cls()
+
+
 def _timed(path: str, kind: str, make: Callable[[str], Any], ops: Ops, repeat: int) -> float:
     best = float("inf")
     for _ in range(max(1, repeat)):
@@ -171,7 +175,7 @@ def _verdicts(path: str, kind: str, cls: Any, ops: Ops, check: bool, audit: bool
                 wrong = _pops_match(ops, out.popped)
                 if wrong:
                     raise heapkit.InvariantError(wrong)
-        except Exception as exc:  # noqa: BLE001 - any failure of the kind is its verdict
+        except Exception as exc:  # any failure of the kind is its verdict
             cause = exc.__cause__ if isinstance(exc, trace.TraceError) and exc.__cause__ else exc
             row.checked = f"FAILED: {_first_line(cause)}"
             row.audited = "-" if audit else row.audited
@@ -225,8 +229,8 @@ def compare(
         if progress:
             print(f"[{i}/{len(kinds)}] {kind}: timing ...", end="", file=sys.stderr, flush=True)
         try:
-            row = Row(kind, _timed(path, kind, lambda k, c=cls: c(), ops, repeat))
-        except Exception as exc:  # noqa: BLE001 - reported in the row
+            row = Row(kind, _timed(path, kind, _maker(cls), ops, repeat))
+        except Exception as exc:  # reported in the row
             if _unsuitable(cls, exc):
                 where = str(exc).removeprefix(f"{path}:")
                 rows.append(Row(kind, float("inf"), unsuitable=f"unsuitable: trace line {where}"))
