@@ -18,7 +18,10 @@ def add_parser(sub: argparse._SubParsersAction) -> None:  # type: ignore[type-ar
         help="dispatch parcels in an invented town on every kind, with checks and the audit on",
         description=__doc__,
     )
-    p.add_argument("--kinds", nargs="+", choices=sorted(heapkit.KINDS), help="kinds to run (default: all)")
+    p.add_argument(
+        "--kinds", nargs="+", choices=sorted(heapkit.KINDS), metavar="KIND",
+        help=f"kinds to run (default: all): {', '.join(sorted(heapkit.KINDS))}",
+    )
     p.add_argument("--jobs", type=int, default=4000, help="parcel jobs in the scenario (default 4000)")
     p.add_argument("--json", action="store_true", help="print the results as JSON")
     p.add_argument("--keep", metavar="PATH", help="also keep the scenario's trace at PATH")

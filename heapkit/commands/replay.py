@@ -21,7 +21,10 @@ def add_parser(sub: argparse._SubParsersAction) -> None:  # type: ignore[type-ar
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
     p.add_argument("trace", help="the trace file (JSON Lines, one operation per line)")
-    p.add_argument("--kinds", nargs="+", choices=sorted(heapkit.KINDS), help="kinds to run (default: all)")
+    p.add_argument(
+        "--kinds", nargs="+", choices=sorted(heapkit.KINDS), metavar="KIND",
+        help=f"kinds to run (default: all): {', '.join(sorted(heapkit.KINDS))}",
+    )
     p.add_argument("--check", action="store_true", help="replay in checked mode and compare each pop with the trace")
     p.add_argument("--audit", action="store_true", help="audit the amortized bounds during the replay")
     p.add_argument("--repeat", type=int, default=3, help="timed replays per kind; the best counts (default 3)")
@@ -32,6 +35,9 @@ def add_parser(sub: argparse._SubParsersAction) -> None:  # type: ignore[type-ar
 
 def run(args: argparse.Namespace) -> int:
     kinds = args.kinds or sorted(heapkit.KINDS)
+    if args.repeat < 1:
+        print(f"heapkit replay: --repeat must be at least 1, got {args.repeat}", file=sys.stderr)
+        return 2
     try:
         # A plain replay on the default kind: the file is readable and consistent
         # (known entry ids, no pop from an empty queue, keys comparable).
