@@ -30,7 +30,7 @@ from typing import IO, Any
 from heapkit.errors import HeapError
 from heapkit.kinds import new
 
-__all__ = ["Recorder", "TraceError", "read", "record", "replay"]
+__all__ = ["Recorder", "TraceError", "key_from_json", "read", "record", "replay"]
 
 
 class TraceError(HeapError, ValueError):
@@ -51,10 +51,14 @@ def _json_key(key: Any, op: str) -> Any:
     return key
 
 
-def _py_key(data: Any) -> Any:
-    """A key read back from JSON: arrays become tuples."""
+def key_from_json(data: Any) -> Any:
+    """A key read back from JSON: arrays become tuples.  O(size of the key).
+
+    >>> key_from_json([3, [1, "b"]])
+    (3, (1, 'b'))
+    """
     if isinstance(data, list):
-        return tuple(_py_key(k) for k in data)
+        return tuple(key_from_json(k) for k in data)
     return data
 
 
@@ -260,11 +264,11 @@ def replay(
         q = queue(op["q"])
         try:
             if what == "push":
-                h = q.push(_py_key(op["key"]), op["id"])
+                h = q.push(key_from_json(op["key"]), op["id"])
                 handles[op["id"]] = h
                 ids[id(h)] = op["id"]
             elif what == "extend":
-                hs = q.extend((_py_key(k), n) for k, n in zip(op["keys"], op["ids"], strict=True))
+                hs = q.extend((key_from_json(k), n) for k, n in zip(op["keys"], op["ids"], strict=True))
                 for n, h in zip(op["ids"], hs, strict=True):
                     handles[n] = h
                     ids[id(h)] = n
@@ -279,9 +283,9 @@ def replay(
                     handles[want], handles[got] = top, other  # type: ignore[index]
                     ids[id(top)], ids[id(other)] = want, got  # type: ignore[assignment]
             elif what == "decrease_key":
-                q.decrease_key(handle(lineno, op["id"]), _py_key(op["key"]))
+                q.decrease_key(handle(lineno, op["id"]), key_from_json(op["key"]))
             elif what == "change_key":
-                q.change_key(handle(lineno, op["id"]), _py_key(op["key"]))
+                q.change_key(handle(lineno, op["id"]), key_from_json(op["key"]))
             elif what == "remove":
                 q.remove(handle(lineno, op["id"]))
             elif what == "meld":

@@ -196,6 +196,31 @@ def test_the_kinds_own_inner_calls_pass_the_guard() -> None:
     assert [k for k, _ in _ext(h).history[-1][1]] == [0, 5]
 
 
+@pytest.mark.parametrize("name", NAMES)
+def test_inner_calls_pass_the_guard_with_the_audit_stacked_above(name: str) -> None:
+    # The audit's layer sits between checked mode and the kind: a kind's remove that
+    # calls its own pop (hollow, pairing) must still count as internal.
+    keys = [5, 3, 9, 1, 7, 2, 8]
+    h = checked(make(name, pairs=[(k, k) for k in keys]))
+    with heapkit.audit(h) as led:
+        assert h.remove(h.peek()) == (1, 1)
+        h.extend([(4, 4), (6, 6)])
+        other = checked(make(name, pairs=[(10, 10)]))
+        h.meld(other)
+        out = [h.pop()[0] for _ in range(len(h))]
+    assert out == sorted([*keys, 4, 6, 10])[1:]  # source: sorted
+    assert led.violation_count == 0 and [r.op for r in led.records][:3] == ["remove", "extend", "meld"]
+
+
+@pytest.mark.parametrize("name", [n for n in NAMES if not monotone(n)])
+def test_the_guard_still_stops_a_meddling_key_under_the_audit(name: str) -> None:
+    h = checked(make(name, pairs=[(Meddler(5), "a"), (Meddler(7), "b")]))
+    with heapkit.audit(h), pytest.raises(RuntimeError, match="in the middle of push"):
+        h.push(Meddler(1, lambda: h.push(Meddler(0), "x")), "new")
+    assert sorted(x.key.k for x in h) == [5, 7]
+    heapkit.check(h)
+
+
 def test_a_raising_key_leaves_a_checked_heap_whole() -> None:
     h = checked(PairingHeap([(1, "a"), (2, "b")]))
     with pytest.raises(TypeError):

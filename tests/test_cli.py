@@ -6,11 +6,14 @@ import json
 import subprocess
 import sys
 from pathlib import Path
+from types import MappingProxyType
+from typing import Any
 
 import pytest
 
 import heapkit
 from heapkit.__main__ import main
+from heapkit.commands.compare import compare, exit_code, render
 
 ROOT = Path(__file__).resolve().parents[1]
 TRACE = ROOT / "examples" / "traces" / "brackenford.jsonl"
@@ -50,3 +53,87 @@ def test_bad_usage_exits_2() -> None:
     assert done.returncode == 2 and b"usage" in done.stderr
     helped = subprocess.run([sys.executable, "-m", "heapkit", "replay", "--help"], capture_output=True, cwd=ROOT)
     assert helped.returncode == 0 and b"--kinds" in helped.stdout
+
+
+# --- the verdict columns: checked mode and the audit, on healthy and broken kinds ---
+
+
+class SloppyPairing(heapkit.PairingHeap):  # type: ignore[type-arg]
+    """Deliberately broken: decrease_key rewrites the key in place and never re-links,
+    so an entry can sit below a parent with a larger key (heap order broken)."""
+
+    def decrease_key(self, handle: Any, key: Any) -> None:
+        w = self._wrap
+        handle._k = key if w is None else w(key, handle._k)
+        handle._key = key
+
+
+class OverpromisingPairing(heapkit.PairingHeap):  # type: ignore[type-arg]
+    """Deliberately broken: documents a bound of half a link for every operation."""
+
+    @classmethod
+    def _bound(cls, op: str, n: int) -> float:
+        return 0.5
+
+
+def test_every_suitable_kind_fills_worst_op_check_and_audit(capsys: pytest.CaptureFixture[str]) -> None:
+    rows = compare(TRACE, sorted(heapkit.KINDS), repeat=1, progress=False)
+    for r in rows:
+        if r.kind == "radix":
+            # the shipped trace has tuple keys: radix takes monotone ints only
+            assert not r.suitable and r.unsuitable.startswith("unsuitable: trace line")
+            continue
+        assert r.checked == "ok" and r.audited == "ok", (r.kind, r.checked, r.audited)
+        assert r.worst_op in ("push", "pop", "decrease_key", "change_key", "remove", "meld")
+        assert r.worst_cost is not None and r.worst_cost >= 1
+    assert exit_code(rows) == 0
+    assert "unsuitable" in render(rows)
+
+
+def test_radix_on_a_monotone_trace_gets_every_column(tmp_path: Path) -> None:
+    # The shipped trace starts with Dijkstra on integer minutes (monotone pops) up to line 436.
+    mono = tmp_path / "dijkstra.jsonl"
+    mono.write_text("".join(TRACE.read_text().splitlines(keepends=True)[:436]))
+    (row,) = compare(mono, ["radix"], repeat=1, progress=False)
+    assert row.suitable and row.checked == "ok" and row.audited == "ok" and row.worst_cost is not None
+
+
+def test_a_kind_that_breaks_heap_order_fails_the_check() -> None:
+    rows = compare(
+        TRACE, ["sloppy", "pairing"], repeat=1, progress=False,
+        factories={"sloppy": SloppyPairing, "pairing": heapkit.PairingHeap},
+    )
+    by = {r.kind: r for r in rows}
+    assert by["sloppy"].checked.startswith("FAILED: HistoryError") and "after decrease_key" in by["sloppy"].checked
+    assert by["pairing"].checked == "ok"
+    assert exit_code(rows) == 1
+    text = render(rows)
+    assert "sloppy check FAILED" in text and "recommended: pairing" in text
+
+
+def test_a_kind_over_its_bound_fails_the_audit() -> None:
+    (row,) = compare(TRACE, ["tight"], repeat=1, progress=False, factories={"tight": OverpromisingPairing})
+    assert row.checked == "ok"
+    assert row.audited.startswith("FAILED:") and "over bound" in row.audited
+    assert "above its bound 0.500" in row.audited
+    assert exit_code([row]) == 1
+
+
+def test_replay_exits_1_on_a_broken_kind(monkeypatch: pytest.MonkeyPatch, capsys: pytest.CaptureFixture[str]) -> None:
+    # heapkit.KINDS is read-only; swap the module attribute for the test (monkeypatch restores it).
+    monkeypatch.setattr(heapkit, "KINDS", MappingProxyType({**heapkit.KINDS, "sloppy": SloppyPairing}))
+    assert main(["replay", str(TRACE), "--kinds", "sloppy", "binary", "--check", "--audit", "--repeat", "1"]) == 1
+    out = capsys.readouterr().out
+    assert "sloppy check FAILED" in out and "recommended: binary" in out
+
+
+def test_replay_exits_2_when_no_named_kind_takes_the_keys(capsys: pytest.CaptureFixture[str]) -> None:
+    assert main(["replay", str(TRACE), "--kinds", "radix", "--repeat", "1"]) == 2
+    assert "none of the named kinds" in capsys.readouterr().err
+
+
+def test_replay_exits_2_on_an_inconsistent_trace(tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    bad = tmp_path / "ghost.jsonl"
+    bad.write_text('{"op":"push","q":0,"id":0,"key":1}\n{"op":"remove","q":0,"id":9}\n')
+    assert main(["replay", str(bad)]) == 2
+    assert "unknown entry id 9" in capsys.readouterr().err

@@ -1,20 +1,31 @@
 """Replay one trace on several kinds and compare them: time, comparisons, worst
 single operation, check and audit verdicts, and a recommendation.
 
-Used by ``python -m heapkit replay`` and ``python -m heapkit demo``.
+Used by ``python -m heapkit replay`` and ``python -m heapkit demo``.  Each kind
+replays the trace plainly (timed, best of ``repeat``), once with its keys
+wrapped to count ``<``, and once in checked mode (``heapkit.checked``) under
+``heapkit.audit`` with ``keep="totals"``.  The checked replay also compares
+each popped key with the key the trace recorded for that pop.  ``factories``
+maps kind names to classes (default ``heapkit.KINDS``), so tests can run a
+deliberately broken kind.
 """
 
 from __future__ import annotations
 
+import contextlib
 import json
+import os
 import sys
 import time
-from collections.abc import Sequence
+from collections.abc import Callable, Mapping, Sequence
 from dataclasses import asdict, dataclass
 from typing import Any
 
 import heapkit
 from heapkit import trace
+from heapkit.ledger import Ledger
+
+Factories = Mapping[str, Callable[[], Any]]
 
 
 class Counted:
@@ -33,7 +44,12 @@ class Counted:
 
 @dataclass
 class Row:
-    """One kind's results on one trace."""
+    """One kind's results on one trace.
+
+    ``checked`` / ``audited``: ``"ok"``, ``"not run"`` or ``"FAILED: ..."``;
+    ``unsuitable``: why the kind cannot take this trace (e.g. radix on keys that
+    are not monotone integers), empty when it can.
+    """
 
     kind: str
     seconds: float
@@ -43,36 +59,15 @@ class Row:
     worst_cost: float | None = None
     checked: str = "not run"
     audited: str = "not run"
+    unsuitable: str = ""
 
     @property
     def healthy(self) -> bool:
-        return self.checked in ("ok", "not run") and self.audited in ("ok", "not run")
+        return not self.unsuitable and self.checked in ("ok", "not run") and self.audited in ("ok", "not run")
 
     @property
     def suitable(self) -> bool:
-        return not self.checked.startswith("unsuitable")
-
-
-def _timed(path: str, kind: str, repeat: int) -> float:
-    ops = list(trace.read(path))  # parse once: the timing is of the replay, not of JSON
-    best = float("inf")
-    for _ in range(repeat):
-        t0 = time.perf_counter()
-        trace.replay(path, kind, ops=ops)
-        best = min(best, time.perf_counter() - t0)
-    return best
-
-
-def _comparisons(path: str, kind: str) -> int | None:
-    if getattr(heapkit.KINDS[kind], "MONOTONE", False):
-        return None  # integer-only kinds cannot take wrapped keys
-    Counted.n = 0
-
-    def make(k: str) -> Any:
-        return _CountingQueue(heapkit.new(k))
-
-    trace.replay(path, kind, make=make)
-    return Counted.n
+        return not self.unsuitable
 
 
 class _CountingQueue:
@@ -113,55 +108,146 @@ class _CountingQueue:
         return len(self.inner)
 
 
-def _verdicts(path: str, kind: str, check: bool, audit: bool, row: Row) -> None:
-    checked = getattr(heapkit, "checked", None) if check else None
-    auditor = getattr(heapkit, "audit", None) if audit else None
-    results: list[Any] = []
+Ops = list[tuple[int, dict[str, Any]]]
 
-    def make(k: str) -> Any:
-        q = heapkit.new(k)
-        if checked is not None:
-            q = checked(q)
-        if auditor is not None:
-            ctx = auditor(q)
-            results.append(ctx.__enter__())
-        return q
+#: A pop line without a recorded key.
+_UNKNOWN: Any = object()
 
-    try:
-        out = trace.replay(path, kind, make=make)
+
+def _maker(cls: Callable[[], Any]) -> Callable[[str], Any]:
+    return lambda kind: cls()
+
+
+def _timed(path: str, kind: str, make: Callable[[str], Any], ops: Ops, repeat: int) -> float:
+    best = float("inf")
+    for _ in range(max(1, repeat)):
+        t0 = time.perf_counter()
+        trace.replay(path, kind, make=make, ops=ops)
+        best = min(best, time.perf_counter() - t0)
+    return best
+
+
+def _comparisons(path: str, kind: str, cls: Any, ops: Ops) -> int | None:
+    if getattr(cls, "MONOTONE", False):
+        return None  # integer-only kinds cannot take wrapped keys
+    Counted.n = 0
+    trace.replay(path, kind, make=lambda k: _CountingQueue(cls()), ops=ops)
+    return Counted.n
+
+
+def _first_line(exc: BaseException) -> str:
+    text = str(exc).strip().splitlines()
+    return f"{type(exc).__name__}: {text[0] if text else ''}"
+
+
+def _pops_match(ops: Ops, popped: list[Any]) -> str:
+    """'' if each popped key equals (neither ``<`` the other) the key the trace recorded for that pop."""
+    want = [op.get("key", _UNKNOWN) for _, op in ops if op["op"] == "pop"]
+    if len(want) != len(popped):
+        return f"{len(popped)} pops replayed, the trace has {len(want)}"
+    for i, (w, got) in enumerate(zip(want, popped, strict=True)):
+        if w is _UNKNOWN:
+            continue
+        w = trace.key_from_json(w)
+        if w < got or got < w:
+            return f"pop #{i} returned key {got!r}; the trace recorded {w!r}"
+    return ""
+
+
+def _verdicts(path: str, kind: str, cls: Any, ops: Ops, check: bool, audit: bool, row: Row) -> None:
+    """One replay with checked mode and the audit on; fills the verdict columns of ``row``."""
+    ledgers: list[Ledger] = []
+    with contextlib.ExitStack() as stack:
+
+        def make(k: str) -> Any:
+            q = cls()
+            if check:
+                q = heapkit.checked(q)
+            if audit:
+                ledgers.append(stack.enter_context(heapkit.audit(q, keep="totals", top=1)))
+            return q
+
+        try:
+            out = trace.replay(path, kind, make=make, ops=ops)
+            if check:
+                for q in out.queues.values():
+                    heapkit.check(q)
+                wrong = _pops_match(ops, out.popped)
+                if wrong:
+                    raise heapkit.InvariantError(wrong)
+        except Exception as exc:  # any failure of the kind is its verdict
+            cause = exc.__cause__ if isinstance(exc, trace.TraceError) and exc.__cause__ else exc
+            row.checked = f"FAILED: {_first_line(cause)}"
+            row.audited = "-" if audit else row.audited
+            return
         if check:
-            for q in out.queues.values():
-                heapkit.check(q)
             row.checked = "ok"
-    except heapkit.InvariantError as exc:
-        row.checked = f"FAILED: {str(exc).splitlines()[0]}"
-        return
-    if auditor is not None and results:
-        violations = sum(len(r.violations) for r in results)
-        row.audited = "ok" if not violations else f"{violations} bound(s) exceeded"
-        worst = [w for r in results for w in r.worst(1)]
+    # The ledgers are closed now (their heaps left the audit): read them.
+    if audit:
+        over = sum(led.violation_count for led in ledgers)
+        row.audited = "ok"
+        for led in ledgers:
+            try:
+                led.assert_bounds()
+            except heapkit.BoundExceededError as exc:
+                row.audited = f"FAILED: {over} op(s) over bound; {str(exc).splitlines()[0]}"
+                break
+        worst = [r for led in ledgers for r in led.worst(1)]
         if worst:
-            top = max(worst, key=lambda w: w.actual)
+            top = max(worst, key=lambda r: r.actual)
             row.worst_op, row.worst_cost = top.op, float(top.actual)
 
 
+def _unsuitable(cls: Any, exc: BaseException) -> bool:
+    """Did a kind that takes only monotone integer keys refuse this trace's keys?"""
+    cause = exc.__cause__ if isinstance(exc, trace.TraceError) else exc
+    return bool(getattr(cls, "MONOTONE", False)) and isinstance(cause, heapkit.KeyOrderError)
+
+
 def compare(
-    path: str, kinds: Sequence[str], *, check: bool = True, audit: bool = True, repeat: int = 3,
+    path: str | os.PathLike[str],
+    kinds: Sequence[str],
+    *,
+    check: bool = True,
+    audit: bool = True,
+    repeat: int = 3,
     progress: bool = True,
+    factories: Factories | None = None,
 ) -> list[Row]:
-    """Replay ``path`` on each kind; rows sorted fastest first, ratios to the fastest."""
+    """Replay ``path`` on each kind; rows sorted fastest first, ratios to the fastest.
+
+    O(kinds x (repeat + 2) x trace length); the checked replay adds O(1)
+    amortized entries checked per operation.
+    """
+    path = os.fspath(path)
+    table: Factories = heapkit.KINDS if factories is None else factories
+    ops: Ops = list(trace.read(path))  # parse once: the timing is of the replay, not of JSON
     rows = []
     for i, kind in enumerate(kinds, 1):
+        cls = table[kind]
+        started = time.perf_counter()
         if progress:
-            print(f"[{i}/{len(kinds)}] replaying on {kind} ...", file=sys.stderr, flush=True)
+            print(f"[{i}/{len(kinds)}] {kind}: timing ...", end="", file=sys.stderr, flush=True)
         try:
-            row = Row(kind, _timed(path, kind, repeat))
-        except (heapkit.KeyOrderError, trace.TraceError) as exc:
-            # e.g. the radix kind on keys that are not monotone integers
-            rows.append(Row(kind, float("inf"), checked=f"unsuitable: {exc}", audited="-"))
+            row = Row(kind, _timed(path, kind, _maker(cls), ops, repeat))
+        except Exception as exc:  # reported in the row
+            if _unsuitable(cls, exc):
+                where = str(exc).removeprefix(f"{path}:")
+                rows.append(Row(kind, float("inf"), unsuitable=f"unsuitable: trace line {where}"))
+            else:
+                rows.append(Row(kind, float("inf"), checked=f"FAILED: {_first_line(exc)}", audited="-"))
+            if progress:
+                print(f" {rows[-1].unsuitable or 'failed'}"[:60], file=sys.stderr, flush=True)
             continue
-        row.comparisons = _comparisons(path, kind)
-        _verdicts(path, kind, check, audit, row)
+        if progress:
+            print(" comparisons ...", end="", file=sys.stderr, flush=True)
+        row.comparisons = _comparisons(path, kind, cls, ops)
+        if check or audit:
+            if progress:
+                print(" checked/audited replay ...", end="", file=sys.stderr, flush=True)
+            _verdicts(path, kind, cls, ops, check, audit, row)
+        if progress:
+            print(f" {time.perf_counter() - started:.1f} s", file=sys.stderr, flush=True)
         rows.append(row)
     rows.sort(key=lambda r: r.seconds)
     fastest = rows[0].seconds if rows else 1.0
@@ -176,26 +262,49 @@ def recommend(rows: Sequence[Row]) -> Row | None:
     return min(healthy, key=lambda r: r.seconds) if healthy else None
 
 
+def exit_code(rows: Sequence[Row]) -> int:
+    """0 every kind that can take the trace passed; 1 a check or bound failed; 2 no kind could take it."""
+    usable = [r for r in rows if r.suitable]
+    if not usable:
+        return 2
+    return 0 if all(r.healthy for r in usable) else 1
+
+
+def _short(verdict: str) -> str:
+    return "FAILED" if verdict.startswith("FAILED") else verdict
+
+
 def render(rows: Sequence[Row]) -> str:
-    """A plain-text table, one kind a line."""
-    head = f"{'kind':<14}{'ms':>9}{'x fastest':>11}{'compares':>11}  {'worst op (cost)':<24}{'check':<8}audit"
+    """A plain-text table, one kind a line, then the full text of every failure."""
+    head = f"{'kind':<14}{'ms':>9}{'x fastest':>11}{'compares':>11}  {'worst op (cost)':<24}{'check':<9}audit"
     lines = [head, "-" * len(head)]
+    notes = []
     for r in rows:
         worst = f"{r.worst_op} ({r.worst_cost:g})" if r.worst_cost is not None else "-"
         comps = "n/a" if r.comparisons is None else str(r.comparisons)
-        if r.seconds == float("inf"):
-            lines.append(f"{r.kind:<14}{'-':>9}{'-':>11}{'-':>11}  {r.checked}")
+        if r.unsuitable:
+            lines.append(f"{r.kind:<14}{'-':>9}{'-':>11}{'-':>11}  {r.unsuitable}")
             continue
-        lines.append(
-            f"{r.kind:<14}{r.seconds * 1000:>9.1f}{r.ratio:>11.2f}{comps:>11}  {worst:<24}"
-            f"{r.checked[:7]:<8}{r.audited}"
-        )
+        if r.seconds == float("inf"):
+            lines.append(f"{r.kind:<14}{'-':>9}{'-':>11}{'-':>11}  {'-':<24}{_short(r.checked):<9}{r.audited}")
+        else:
+            lines.append(
+                f"{r.kind:<14}{r.seconds * 1000:>9.1f}{r.ratio:>11.2f}{comps:>11}  {worst:<24}"
+                f"{_short(r.checked):<9}{_short(r.audited)}"
+            )
+        for what, verdict in (("check", r.checked), ("audit", r.audited)):
+            if verdict.startswith("FAILED"):
+                notes.append(f"  {r.kind} {what} {verdict}")
+    if notes:
+        lines.extend(["", "failures:", *notes])
     best = recommend(rows)
     lines.append("")
-    lines.append(f"recommended: {best.kind}" if best else "recommended: none (every kind failed a check)")
+    lines.append(f"recommended: {best.kind}" if best else "recommended: none (no kind passed its checks)")
     return "\n".join(lines)
 
 
 def as_json(rows: Sequence[Row]) -> str:
     best = recommend(rows)
-    return json.dumps({"rows": [asdict(r) for r in rows], "recommended": best.kind if best else None}, indent=2)
+    data = [{**asdict(r), "seconds": None if r.seconds == float("inf") else r.seconds,
+             "ratio": None if r.ratio == float("inf") else r.ratio} for r in rows]
+    return json.dumps({"rows": data, "recommended": best.kind if best else None}, indent=2)

@@ -8,7 +8,7 @@ import sys
 import tempfile
 
 import heapkit
-from heapkit.commands.compare import as_json, compare, render
+from heapkit.commands.compare import as_json, compare, exit_code, render
 from heapkit.commands.scenario import record_scenario, tell
 
 
@@ -18,7 +18,10 @@ def add_parser(sub: argparse._SubParsersAction) -> None:  # type: ignore[type-ar
         help="dispatch parcels in an invented town on every kind, with checks and the audit on",
         description=__doc__,
     )
-    p.add_argument("--kinds", nargs="+", choices=sorted(heapkit.KINDS), help="kinds to run (default: all)")
+    p.add_argument(
+        "--kinds", nargs="+", choices=sorted(heapkit.KINDS), metavar="KIND",
+        help=f"kinds to run (default: all): {', '.join(sorted(heapkit.KINDS))}",
+    )
     p.add_argument("--jobs", type=int, default=4000, help="parcel jobs in the scenario (default 4000)")
     p.add_argument("--json", action="store_true", help="print the results as JSON")
     p.add_argument("--keep", metavar="PATH", help="also keep the scenario's trace at PATH")
@@ -40,4 +43,4 @@ def run(args: argparse.Namespace) -> int:
         print(tell(story))
         print()
         print(render(rows))
-    return 0 if all(r.healthy for r in rows if r.suitable) else 1
+    return exit_code(rows)

@@ -219,10 +219,19 @@ def _failure(h: Any, st: _State, report: Report) -> HistoryError:
 
 
 def _internal(h: Any, depth: int) -> bool:
-    """Is the wrapper's caller the heap's own code (not a key's ``<``)?"""
+    """Is the wrapper's caller the heap's own code (not a key's ``<``)?
+
+    Frames of another mode's layer stacked above this one (the auditor's) are
+    passed over: their caller is the one that counts.
+    """
     # Frames: 0 _internal, 1 _begin, 2 the wrapper (3 with _rekey), then its caller.
-    mod = sys._getframe(depth + 1).f_globals.get("__name__")
-    return any(c.__module__ == mod for c in type(h).__mro__ if "_layer" not in c.__dict__)
+    mro = type(h).__mro__
+    above = {c.__module__ for c in mro if c.__dict__.get("_layer") not in (None, MODE)}
+    frame: Any = sys._getframe(depth + 1)
+    while frame is not None and frame.f_globals.get("__name__") in above:
+        frame = frame.f_back
+    mod = None if frame is None else frame.f_globals.get("__name__")
+    return any(c.__module__ == mod for c in mro if "_layer" not in c.__dict__)
 
 
 def _begin(h: Any, op: str, handle: Any, depth: int = 2) -> _State | None:
