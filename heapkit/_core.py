@@ -220,6 +220,24 @@ def upward_error(handle: object, key: object) -> KeyOrderError:
     )
 
 
+def seen_path(x: Any, seen: dict[int, tuple[Any, str]], missing: str = "?") -> list[str]:
+    """Steps from a root to ``x`` as a survey recorded them (``id(node) -> (parent, step)``).
+
+    A node the survey has not recorded reads as the step ``missing`` with no
+    parent.  At most ``len(seen) + 1`` steps, so a cycle cannot trap it.
+
+    >>> a, b = object(), object()
+    >>> seen_path(b, {id(a): (None, "root"), id(b): (a, "child 0")})
+    ['root', 'child 0']
+    """
+    steps: list[str] = []
+    while x is not None and len(steps) <= len(seen):
+        x, step = seen.get(id(x), (None, missing))
+        steps.append(step)
+    steps.reverse()
+    return steps
+
+
 class HeapBase(Generic[K, V]):
     """Shared machinery of every kind (see the module docstring for the SPI)."""
 
