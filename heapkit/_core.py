@@ -314,7 +314,12 @@ class HeapBase(Generic[K, V]):
 
     # --- shared protocol members ------------------------------------------------
     def __len__(self) -> int:
-        """Number of entries.  O(1) worst-case."""
+        """Number of entries.  O(1) worst-case.
+
+        >>> from heapkit import PairingHeap
+        >>> len(PairingHeap([(2, 'b'), (1, 'a')]))
+        2
+        """
         return self._n
 
     def __bool__(self) -> bool:
@@ -324,6 +329,10 @@ class HeapBase(Generic[K, V]):
         """Every live handle, no order promised.  O(n) for the whole iteration.
 
         Raises ``RuntimeError`` if the heap changes while it runs.
+
+        >>> from heapkit import PairingHeap
+        >>> sorted(x.key for x in PairingHeap([(2, 'b'), (1, 'a')]))
+        [1, 2]
         """
         ver = self._ver
         for h in self._handles():
@@ -334,7 +343,13 @@ class HeapBase(Generic[K, V]):
             raise RuntimeError(f"{type(self).__name__} changed during iteration")
 
     def __contains__(self, handle: object) -> bool:
-        """True if ``handle`` is live in this heap.  O(1) amortized."""
+        """True if ``handle`` is live in this heap.  O(1) amortized.
+
+        >>> from heapkit import PairingHeap
+        >>> h = PairingHeap(); x = h.push(1, 'a')
+        >>> x in h, x in PairingHeap()
+        (True, False)
+        """
         tok = getattr(handle, "_tok", None)
         if not isinstance(tok, Owner):
             return False
@@ -358,7 +373,7 @@ class HeapBase(Generic[K, V]):
         h._tok = self._tok
 
     def extend(self, pairs: Iterable[tuple[K, V]]) -> list[Any]:
-        """Insert every ``(key, value)`` pair; all or nothing.
+        """Insert every ``(key, value)`` pair; all or nothing.  O(k) + one meld for most kinds.
 
         Builds a separate heap of the new entries, then melds it in, so a bad
         pair or a failing comparison leaves this heap as it was.  Cost: the
@@ -387,7 +402,7 @@ class HeapBase(Generic[K, V]):
         return self._family()(stable=self._stable, **self._options())  # type: ignore[no-any-return]
 
     def meld(self, other: Heap[K, V] | HeapBase[K, V]) -> None:
-        """Move every entry of ``other`` into this heap; ``other`` is left empty.
+        """Move every entry of ``other`` into this heap, emptying it.  The kind's meld bound.
 
         Handles from ``other`` stay valid and now belong to this heap.  Cost: the
         kind's meld bound (O(1) for pairing and Fibonacci heaps).
