@@ -73,7 +73,10 @@ import itertools
 from collections.abc import Callable, Iterable, Iterator
 from typing import TYPE_CHECKING, Any, ClassVar, Generic, TypeVar
 
-from heapkit.errors import EmptyHeapError, InvalidHandleError, KeyOrderError
+from heapkit.errors import InvalidHandleError
+from heapkit.errors import empty_error as empty_error
+from heapkit.errors import nan_error as nan_error
+from heapkit.errors import upward_error as upward_error
 from heapkit.protocol import Heap
 
 if TYPE_CHECKING:
@@ -200,36 +203,12 @@ class HandleBase(Generic[K, V]):
 
 def revive(cls: type[Any], key: Any, value: Any, seq: int | None) -> Any:
     """Rebuild a detached, dead handle of ``cls`` (its heap relinks it)."""
-    h = cls(key, key if seq is None else Stable(key, seq), value, None)
-    return h
-
-
-def nan_error(op: str, key: object) -> KeyOrderError:
-    return KeyOrderError(f"{op}: key {key!r} is not equal to itself (NaN cannot be ordered)")
-
-
-def empty_error(op: str) -> EmptyHeapError:
-    return EmptyHeapError(f"{op}: the heap is empty")
-
-
-def upward_error(handle: object, key: object) -> KeyOrderError:
-    cur = getattr(handle, "key", None)
-    return KeyOrderError(
-        f"decrease_key: new key {key!r} is larger than the current key {cur!r} of {handle!r}; "
-        "use change_key to move a key up"
-    )
+    return cls(key, key if seq is None else Stable(key, seq), value, None)
 
 
 def seen_path(x: Any, seen: dict[int, tuple[Any, str]], missing: str = "?") -> list[str]:
-    """Steps from a root to ``x`` as a survey recorded them (``id(node) -> (parent, step)``).
-
-    A node the survey has not recorded reads as the step ``missing`` with no
-    parent.  At most ``len(seen) + 1`` steps, so a cycle cannot trap it.
-
-    >>> a, b = object(), object()
-    >>> seen_path(b, {id(a): (None, "root"), id(b): (a, "child 0")})
-    ['root', 'child 0']
-    """
+    """Steps from a root to ``x`` as a survey recorded them (``id(node) -> (parent, step)``);
+    an unrecorded node reads ``missing``.  At most ``len(seen) + 1`` steps (cycles end)."""
     steps: list[str] = []
     while x is not None and len(steps) <= len(seen):
         x, step = seen.get(id(x), (None, missing))
@@ -316,8 +295,7 @@ class HeapBase(Generic[K, V]):
     def __len__(self) -> int:
         """Number of entries.  O(1) worst-case.
 
-        >>> from heapkit import PairingHeap
-        >>> len(PairingHeap([(2, 'b'), (1, 'a')]))
+        >>> from heapkit import PairingHeap; len(PairingHeap([(2, 'b'), (1, 'a')]))
         2
         """
         return self._n
@@ -330,8 +308,7 @@ class HeapBase(Generic[K, V]):
 
         Raises ``RuntimeError`` if the heap changes while it runs.
 
-        >>> from heapkit import PairingHeap
-        >>> sorted(x.key for x in PairingHeap([(2, 'b'), (1, 'a')]))
+        >>> from heapkit import PairingHeap; sorted(x.key for x in PairingHeap([(2, 'b'), (1, 'a')]))
         [1, 2]
         """
         ver = self._ver
