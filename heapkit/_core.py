@@ -73,7 +73,10 @@ import itertools
 from collections.abc import Callable, Iterable, Iterator
 from typing import TYPE_CHECKING, Any, ClassVar, Generic, TypeVar
 
-from heapkit.errors import EmptyHeapError, InvalidHandleError, KeyOrderError
+from heapkit.errors import InvalidHandleError
+from heapkit.errors import empty_error as empty_error
+from heapkit.errors import nan_error as nan_error
+from heapkit.errors import upward_error as upward_error
 from heapkit.protocol import Heap
 
 if TYPE_CHECKING:
@@ -200,24 +203,18 @@ class HandleBase(Generic[K, V]):
 
 def revive(cls: type[Any], key: Any, value: Any, seq: int | None) -> Any:
     """Rebuild a detached, dead handle of ``cls`` (its heap relinks it)."""
-    h = cls(key, key if seq is None else Stable(key, seq), value, None)
-    return h
+    return cls(key, key if seq is None else Stable(key, seq), value, None)
 
 
-def nan_error(op: str, key: object) -> KeyOrderError:
-    return KeyOrderError(f"{op}: key {key!r} is not equal to itself (NaN cannot be ordered)")
-
-
-def empty_error(op: str) -> EmptyHeapError:
-    return EmptyHeapError(f"{op}: the heap is empty")
-
-
-def upward_error(handle: object, key: object) -> KeyOrderError:
-    cur = getattr(handle, "key", None)
-    return KeyOrderError(
-        f"decrease_key: new key {key!r} is larger than the current key {cur!r} of {handle!r}; "
-        "use change_key to move a key up"
-    )
+def seen_path(x: Any, seen: dict[int, tuple[Any, str]], missing: str = "?") -> list[str]:
+    """Steps from a root to ``x`` as a survey recorded them (``id(node) -> (parent, step)``);
+    an unrecorded node reads ``missing``.  At most ``len(seen) + 1`` steps (cycles end)."""
+    steps: list[str] = []
+    while x is not None and len(steps) <= len(seen):
+        x, step = seen.get(id(x), (None, missing))
+        steps.append(step)
+    steps.reverse()
+    return steps
 
 
 class HeapBase(Generic[K, V]):
@@ -290,13 +287,29 @@ class HeapBase(Generic[K, V]):
     def _survey(self, report: Any) -> dict[str, Any]:
         raise NotImplementedError
 
+    _NODE: ClassVar[type[Any]] = HandleBase  # the kind's handle class: _new_order's fast path
+
+    def _new_order(self, h: Any, key: Any, op: str) -> Any:
+        """Start of ``decrease_key``/``change_key``: claim ``h``, refuse NaN, return the new
+        ordering object.  Fibonacci, binomial, rank-pairing, hollow; the hot kinds inline it."""
+        if type(h) is not self._NODE or h._tok is not self._tok:
+            self._claim(h, op)
+        if key != key:
+            raise nan_error(op, key)
+        w = self._wrap
+        return key if w is None else w(key, h._k)
+
     def _kill(self, h: Any) -> None:
         """Make a handle dead and drop its links (kinds with more links extend it)."""
         h._tok = None
 
     # --- shared protocol members ------------------------------------------------
     def __len__(self) -> int:
-        """Number of entries.  O(1) worst-case."""
+        """Number of entries.  O(1) worst-case.
+
+        >>> from heapkit import PairingHeap; len(PairingHeap([(2, 'b'), (1, 'a')]))
+        2
+        """
         return self._n
 
     def __bool__(self) -> bool:
@@ -306,6 +319,9 @@ class HeapBase(Generic[K, V]):
         """Every live handle, no order promised.  O(n) for the whole iteration.
 
         Raises ``RuntimeError`` if the heap changes while it runs.
+
+        >>> from heapkit import PairingHeap; sorted(x.key for x in PairingHeap([(2, 'b'), (1, 'a')]))
+        [1, 2]
         """
         ver = self._ver
         for h in self._handles():
@@ -316,7 +332,13 @@ class HeapBase(Generic[K, V]):
             raise RuntimeError(f"{type(self).__name__} changed during iteration")
 
     def __contains__(self, handle: object) -> bool:
-        """True if ``handle`` is live in this heap.  O(1) amortized."""
+        """True if ``handle`` is live in this heap.  O(1) amortized.
+
+        >>> from heapkit import PairingHeap
+        >>> h = PairingHeap(); x = h.push(1, 'a')
+        >>> x in h, x in PairingHeap()
+        (True, False)
+        """
         tok = getattr(handle, "_tok", None)
         if not isinstance(tok, Owner):
             return False
@@ -340,7 +362,7 @@ class HeapBase(Generic[K, V]):
         h._tok = self._tok
 
     def extend(self, pairs: Iterable[tuple[K, V]]) -> list[Any]:
-        """Insert every ``(key, value)`` pair; all or nothing.
+        """Insert every ``(key, value)`` pair; all or nothing.  O(k) + one meld for most kinds.
 
         Builds a separate heap of the new entries, then melds it in, so a bad
         pair or a failing comparison leaves this heap as it was.  Cost: the
@@ -369,7 +391,7 @@ class HeapBase(Generic[K, V]):
         return self._family()(stable=self._stable, **self._options())  # type: ignore[no-any-return]
 
     def meld(self, other: Heap[K, V] | HeapBase[K, V]) -> None:
-        """Move every entry of ``other`` into this heap; ``other`` is left empty.
+        """Move every entry of ``other`` into this heap, emptying it.  The kind's meld bound.
 
         Handles from ``other`` stay valid and now belong to this heap.  Cost: the
         kind's meld bound (O(1) for pairing and Fibonacci heaps).

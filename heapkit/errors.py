@@ -47,3 +47,20 @@ class InvariantError(HeapError, AssertionError):
 
 class BoundExceededError(HeapError, AssertionError):
     """An audited operation cost more than its kind's documented bound."""
+
+
+# --- the messages kinds raise (``heapkit._core`` re-exports them) ---------------
+def nan_error(op: str, key: object) -> KeyOrderError:
+    return KeyOrderError(f"{op}: key {key!r} is not equal to itself (NaN cannot be ordered)")
+
+
+def empty_error(op: str) -> EmptyHeapError:
+    return EmptyHeapError(f"{op}: the heap is empty")
+
+
+def upward_error(handle: object, key: object) -> KeyOrderError:
+    cur = getattr(handle, "key", None)
+    return KeyOrderError(
+        f"decrease_key: new key {key!r} is larger than the current key {cur!r} of {handle!r}; "
+        "use change_key to move a key up"
+    )

@@ -9,6 +9,8 @@ from __future__ import annotations
 from collections.abc import Iterator
 from typing import Any
 
+from heapkit._core import seen_path
+
 
 class Node:
     """DAG node: ``item`` (the handle, None when hollow), ``k``/``key`` (kept when
@@ -165,14 +167,8 @@ def _adopt_all(heap: Any, x: Any, trees: list[Any], extra: Any) -> None:
         heap._hr += extra.rank
 
 
-def _path(v: Any, found: dict[int, tuple[Any, int]]) -> list[str]:
-    steps: list[str] = []
-    while v is not None and len(steps) <= len(found):
-        parent, index = found.get(id(v), (None, 0))
-        steps.append("root" if parent is None else f"child {index}")
-        v = parent
-    steps.reverse()
-    return steps
+def _path(v: Any, found: dict[int, tuple[Any, str]]) -> list[str]:
+    return seen_path(v, found, "root")
 
 
 def _check_node(heap: Any, report: Any, v: Any, at: Any) -> None:
@@ -208,13 +204,13 @@ def survey(heap: Any, report: Any) -> dict[str, Any]:
     """Check every rule of a :class:`HollowHeap` in O(N), iteratively."""
     root = heap._root
     cap = heap._n + heap._h + 2
-    found: dict[int, tuple[Any, int]] = {}
+    found: dict[int, tuple[Any, str]] = {}
     parents: dict[int, int] = {}
     full = hollow = height = max_degree = 0
     fulls: list[Any] = []
     byid: dict[int, Any] = {}
     if root is not None:
-        found[id(root)] = (None, 0)
+        found[id(root)] = (None, "root")
         _check_root(heap, report, root)
     stack: list[tuple[Any, int]] = [] if root is None else [(root, 0)]
     while stack:
@@ -244,7 +240,7 @@ def survey(heap: Any, report: Any) -> dict[str, Any]:
                 )
             parents[id(c)] = parents.get(id(c), 0) + 1
             if id(c) not in found:
-                found[id(c)] = (v, degree)
+                found[id(c)] = (v, f"child {degree}")
                 byid[id(c)] = c
                 stack.append((c, depth + 1))
             degree += 1

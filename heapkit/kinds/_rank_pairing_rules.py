@@ -10,6 +10,8 @@ from __future__ import annotations
 from collections.abc import Iterator
 from typing import Any
 
+from heapkit._core import seen_path
+
 __all__ = [
     "dot_edges", "export_trees", "import_trees", "nodes_of", "roots_of", "survey", "survey_local", "tally",
     "type2_rank",
@@ -29,14 +31,7 @@ def _rank(x: Any) -> int:
     return -1 if x is None else int(x._rank)
 
 
-def _path(x: Any, seen: dict[int, tuple[Any, str]]) -> list[str]:
-    steps: list[str] = []
-    while x is not None and len(steps) <= len(seen):
-        parent, step = seen.get(id(x), (None, "?"))
-        steps.append(step)
-        x = parent
-    steps.reverse()
-    return steps
+_path = seen_path
 
 
 def _rank_error(x: Any, root: bool) -> str | None:

@@ -159,6 +159,7 @@ class BinaryHeap(DaryHeap[K, V]):
         if self._d != 2:
             super().decrease_key(x, key)
             return
+        # Preamble inline, not HeapBase._new_order: a call is ~50 ns, 5% of a pairing decrease_key (measured).
         if type(x) is not _Slot or x._tok is not self._tok:
             self._claim(x, "decrease_key")
         if key != key:

@@ -79,6 +79,7 @@ class BinomialHeap(BinomialRules, HeapBase[K, V], Generic[K, V]):
     __slots__ = ("_min", "_raised", "_roots")
 
     KIND: ClassVar[str] = "binomial"
+    _NODE: ClassVar[type[Any]] = _Node
     WORST_CASE: ClassVar[bool] = False
     COST_UNIT: ClassVar[str] = "links + roots scanned + 1 (decrease_key: levels moved + 1)"
     POTENTIAL: ClassVar[str] = "number of trees"
@@ -194,12 +195,7 @@ class BinomialHeap(BinomialRules, HeapBase[K, V], Generic[K, V]):
         True
         """
         x: Any = handle
-        if type(x) is not _Node or x._tok is not self._tok:
-            self._claim(x, "decrease_key")
-        if key != key:
-            raise nan_error("decrease_key", key)
-        w = self._wrap
-        k = key if w is None else w(key, x._k)
+        k = self._new_order(x, key, "decrease_key")
         if x._k < k:
             raise upward_error(x, key)
         self._lower(x, key, k)
@@ -212,12 +208,7 @@ class BinomialHeap(BinomialRules, HeapBase[K, V], Generic[K, V]):
         (4, 'd')
         """
         x: Any = handle
-        if type(x) is not _Node or x._tok is not self._tok:
-            self._claim(x, "change_key")
-        if key != key:
-            raise nan_error("change_key", key)
-        w = self._wrap
-        k = key if w is None else w(key, x._k)
+        k = self._new_order(x, key, "change_key")
         if not x._k < k:
             self._lower(x, key, k)
             return

@@ -11,7 +11,7 @@ from __future__ import annotations
 from collections.abc import Iterator
 from typing import Any, ClassVar
 
-from heapkit._core import HandleBase
+from heapkit._core import HandleBase, seen_path
 from heapkit.kinds.binomial_forest import _ancestors, _up
 
 __all__ = ["BinomialRules"]
@@ -55,14 +55,7 @@ class BinomialRules:
         steps.reverse()
         return steps
 
-    @staticmethod
-    def _path(x: Any, seen: dict[int, tuple[Any, str]]) -> list[str]:
-        steps: list[str] = []
-        while x is not None and len(steps) <= len(seen):
-            x, step = seen.get(id(x), (None, "?"))
-            steps.append(step)
-        steps.reverse()
-        return steps
+    _path = staticmethod(seen_path)
 
     # --- full survey ---------------------------------------------------------
     def _survey(self, report: Any) -> dict[str, Any]:

@@ -1,4 +1,8 @@
-"""What checked mode and ``to_dot`` ask of a d-ary heap (kept beside ``dary.py``).
+"""The rules of a d-ary heap checked: the full survey, check paths, and what
+checked mode and ``to_dot`` ask (kept beside ``dary.py``).
+
+The full survey (``DaryHeap._survey``) visits every position once and checks
+``index``, ``ownership`` and ``heap-order`` against the parent: O(n).
 
 Incremental checking: an operation (other than meld) moves entries along one
 path of the implicit tree, between the positions it starts from and the
@@ -20,7 +24,7 @@ from __future__ import annotations
 from collections.abc import Iterator
 from typing import Any
 
-__all__ = ["dot_edges", "stretch", "survey_local", "touched"]
+__all__ = ["dot_edges", "path", "stretch", "survey", "survey_local", "touched"]
 
 
 def touched(heap: Any, op: str, handle: Any) -> Any:
@@ -112,3 +116,52 @@ def dot_edges(heap: Any) -> Iterator[tuple[Any, Any, str]]:
     d = heap._d
     for i, x in enumerate(a):
         yield (a[(i - 1) // d] if i else None), x, f"[{i}]"
+
+
+def path(heap: Any, i: int) -> list[str]:
+    """Steps from the root to position ``i`` (``child j`` at each level)."""
+    d = heap._d
+    steps: list[str] = []
+    while i > 0:
+        p = (i - 1) // d
+        steps.append(f"child {i - (d * p + 1)}")
+        i = p
+    steps.append("root")
+    steps.reverse()
+    return steps
+
+
+def survey(heap: Any, report: Any) -> dict[str, Any]:
+    """Check every rule in O(n d); return the figures of :class:`heapkit.Shape`."""
+    a = heap._a
+    d = heap._d
+    for i, x in enumerate(a):
+        if x._i != i:
+            report.fail("index", x, path(heap, i), f"handle says position {x._i}, stands at {i}")
+        if x not in heap:
+            report.fail("ownership", x, path(heap, i), "its owner token is not this heap's")
+        if i:
+            p = a[(i - 1) // d]
+            if x._k < p._k:
+                report.fail(
+                    "heap-order", x, path(heap, i),
+                    f"key {x._key!r} is smaller than its parent's {p._key!r}",
+                )
+    if len(a) != heap._n:
+        report.fail("size", None, [], f"the array holds {len(a)} entries but len is {heap._n}")
+    n = len(a)
+    # span: how many entries levels 0..height hold; stop once they hold n.
+    height = 0
+    span = 1
+    while span < n:
+        span = span * d + 1
+        height += 1
+    return {
+        "size": n,
+        "roots": 1 if n else 0,
+        "height": height,
+        "max_degree": min(d, max(0, n - 1)),
+        "marked": None,
+        "potential": None,
+        "details": {"arity": d},
+    }

@@ -85,6 +85,7 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
     __slots__ = ("_cons", "_marks", "_min", "_roots")
 
     KIND: ClassVar[str] = "fibonacci"
+    _NODE: ClassVar[type[Any]] = _Node
     RULES: ClassVar[dict[str, str]] = _rules.RULES
     COST_UNIT: ClassVar[str] = "roots scanned + links + cuts + 1"
     POTENTIAL: ClassVar[str] = "trees + 2 * marked nodes"
@@ -181,12 +182,7 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
         True
         """
         x: Any = handle
-        if type(x) is not _Node or x._tok is not self._tok:
-            self._claim(x, "decrease_key")
-        if key != key:
-            raise nan_error("decrease_key", key)
-        w = self._wrap
-        k = key if w is None else w(key, x._k)
+        k = self._new_order(x, key, "decrease_key")
         if x._k < k:
             raise upward_error(x, key)
         self._lower(x, key, k)
@@ -199,12 +195,7 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
         (4, 'd')
         """
         x: Any = handle
-        if type(x) is not _Node or x._tok is not self._tok:
-            self._claim(x, "change_key")
-        if key != key:
-            raise nan_error("change_key", key)
-        w = self._wrap
-        k = key if w is None else w(key, x._k)
+        k = self._new_order(x, key, "change_key")
         if x._k < k:
             self._raise(x, key, k)
         else:

@@ -89,6 +89,7 @@ class HollowHeap(HeapBase[K, V], Generic[K, V]):
     __slots__ = ("_h", "_hr", "_root", "_u", "_work")
 
     KIND: ClassVar[str] = "hollow"
+    _NODE: ClassVar[type[Any]] = _Entry
     RULES: ClassVar[dict[str, str]] = {
         "heap-order": "no node of the DAG is smaller than a parent (hollow nodes keep their key)",
         "rank": "a full node of rank r has ranked children of ranks r-1..0; a hollow one a prefix",
@@ -179,12 +180,7 @@ class HollowHeap(HeapBase[K, V], Generic[K, V]):
         True
         """
         e: Any = handle
-        if type(e) is not _Entry or e._tok is not self._tok:
-            self._claim(e, "decrease_key")
-        if key != key:
-            raise nan_error("decrease_key", key)
-        w = self._wrap
-        k = key if w is None else w(key, e._k)
+        k = self._new_order(e, key, "decrease_key")
         if e._k < k:
             raise upward_error(e, key)
         self._lower(e, key, k)
@@ -239,12 +235,7 @@ class HollowHeap(HeapBase[K, V], Generic[K, V]):
         (4, 'd')
         """
         e: Any = handle
-        if type(e) is not _Entry or e._tok is not self._tok:
-            self._claim(e, "change_key")
-        if key != key:
-            raise nan_error("change_key", key)
-        w = self._wrap
-        k = key if w is None else w(key, e._k)
+        k = self._new_order(e, key, "change_key")
         if not e._k < k:
             self._lower(e, key, k)
             return

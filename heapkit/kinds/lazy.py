@@ -232,6 +232,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
         True
         """
         x: Any = handle
+        # Preamble inline (its own entry tuples): a call is ~50 ns, 5% of a pairing decrease_key (measured).
         e = x._e if type(x) is _Handle else None
         if type(e) is not tuple or e[2] is not self._tok:
             e = self._claim(x, "decrease_key")
@@ -260,8 +261,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
         k = key if w is None and type(key) in _RAW else _Ord(key) if w is None else w(key, e[0])
         self._repush(x, k)
 
-    # Push a fresh entry for live handle x with ordering object k; the old
-    # entry goes stale.  Compacts first if stale >= n.
+    # Push a fresh entry for live handle x with ordering object k (the old one goes stale); compacts if stale >= n.
     def _repush(self, x: Any, k: Any) -> None:
         if self._stale >= self._n:
             self._compact()

@@ -114,6 +114,7 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
     __slots__ = ("_bins", "_first", "_rs", "_rt", "_work", "_zs")
 
     KIND: ClassVar[str] = "rank-pairing"
+    _NODE: ClassVar[type[Any]] = _Node
     RULES: ClassVar[dict[str, str]] = {
         "half-order": "no node is smaller than the node whose left subtree holds it",
         "half-tree": "roots have no right child",
@@ -292,12 +293,7 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
         True
         """
         x: Any = handle
-        if type(x) is not _Node or x._tok is not self._tok:
-            self._claim(x, "decrease_key")
-        if key != key:
-            raise nan_error("decrease_key", key)
-        w = self._wrap
-        k = key if w is None else w(key, x._k)
+        k = self._new_order(x, key, "decrease_key")
         if x._k < k:
             raise upward_error(x, key)
         self._lower(x, key, k)
@@ -310,12 +306,7 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
         (4, 'd')
         """
         x: Any = handle
-        if type(x) is not _Node or x._tok is not self._tok:
-            self._claim(x, "change_key")
-        if key != key:
-            raise nan_error("change_key", key)
-        w = self._wrap
-        k = key if w is None else w(key, x._k)
+        k = self._new_order(x, key, "change_key")
         if x._k < k:
             self._raise(x, key, k)
         else:
