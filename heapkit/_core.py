@@ -225,6 +225,7 @@ class HeapBase(Generic[K, V]):
     KIND: ClassVar[str] = ""
     RULES: ClassVar[dict[str, str]] = {}
     WORST_CASE: ClassVar[bool] = False
+    BOUNDS: ClassVar[str] = ""  # one line for `python -m heapkit kinds`
     COST_UNIT: ClassVar[str] = ""
     POTENTIAL: ClassVar[str] = ""
     PHI_C: ClassVar[float] = 1.0

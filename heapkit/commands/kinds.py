@@ -14,10 +14,9 @@ def add_parser(sub: argparse._SubParsersAction) -> None:  # type: ignore[type-ar
 
 def describe(name: str) -> str:
     cls = heapkit.KINDS[name]
-    kind = "worst-case" if getattr(cls, "WORST_CASE", False) else "amortized"
     bounds = getattr(cls, "BOUNDS", "") or (cls.__doc__ or "").strip().splitlines()[0]
     star = " (default)" if name == heapkit.DEFAULT else ""
-    return f"{name + star:<24}{cls.__name__:<18}{kind:<12}{bounds}"
+    return f"{name + star:<24}{cls.__name__:<18}{bounds}"
 
 
 def run(args: argparse.Namespace) -> int:

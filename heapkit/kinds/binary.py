@@ -48,6 +48,7 @@ class BinaryHeap(DaryHeap[K, V]):
 
     __slots__ = ()
     KIND: ClassVar[str] = "binary"
+    BOUNDS: ClassVar[str] = "worst-case: push, decrease_key, pop, remove, change_key O(log n); peek O(1)"
     DEFAULT_ARITY: ClassVar[int] = 2
 
     def push(self, key: K, value: V) -> _Slot[K, V]:

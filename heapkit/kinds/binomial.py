@@ -79,6 +79,7 @@ class BinomialHeap(BinomialRules, HeapBase[K, V], Generic[K, V]):
     __slots__ = ("_min", "_raised", "_roots")
 
     KIND: ClassVar[str] = "binomial"
+    BOUNDS: ClassVar[str] = "push O(1) amortized; push, meld, pop, remove, decrease_key, change_key O(log n) worst-case"
     _NODE: ClassVar[type[Any]] = _Node
     WORST_CASE: ClassVar[bool] = False
     COST_UNIT: ClassVar[str] = "links + roots scanned + 1 (decrease_key: levels moved + 1)"

@@ -85,6 +85,7 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
     __slots__ = ("_cons", "_marks", "_min", "_roots")
 
     KIND: ClassVar[str] = "fibonacci"
+    BOUNDS: ClassVar[str] = "push, meld O(1); decrease_key O(1) amortized; pop, remove, change_key O(log n) amortized"
     _NODE: ClassVar[type[Any]] = _Node
     RULES: ClassVar[dict[str, str]] = _rules.RULES
     COST_UNIT: ClassVar[str] = "roots scanned + links + cuts + 1"

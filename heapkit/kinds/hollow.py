@@ -89,6 +89,7 @@ class HollowHeap(HeapBase[K, V], Generic[K, V]):
     __slots__ = ("_h", "_hr", "_root", "_u", "_work")
 
     KIND: ClassVar[str] = "hollow"
+    BOUNDS: ClassVar[str] = "push, meld, decrease_key O(1) worst-case; pop, remove, change_key O(log n) amortized"
     _NODE: ClassVar[type[Any]] = _Entry
     RULES: ClassVar[dict[str, str]] = {
         "heap-order": "no node of the DAG is smaller than a parent (hollow nodes keep their key)",

@@ -96,6 +96,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
     __slots__ = ("_a", "_stale")
 
     KIND: ClassVar[str] = "lazy"
+    BOUNDS: ClassVar[str] = "push O(log n); pop, decrease_key, change_key O(log n) amortized; remove O(1) amortized"
     WORST_CASE: ClassVar[bool] = False
     RULES: ClassVar[dict[str, str]] = {
         "heap-order": "no entry of the list (stale ones included) is below its parent a[(i - 1) // 2]",

@@ -87,6 +87,7 @@ class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
     __slots__ = ("_root",)
 
     KIND: ClassVar[str] = "pairing"
+    BOUNDS: ClassVar[str] = "push, meld, peek O(1) worst-case; pop, remove, decrease_key, change_key O(log n) amortized"
     RULES: ClassVar[dict[str, str]] = {
         "heap-order": "no child is smaller than its parent",
         "links": "prev/next/child links agree; the root has no siblings; no node twice",

@@ -104,6 +104,7 @@ class RadixHeap(HeapBase[int, V], Generic[V]):
     __slots__ = ("_buckets", "_last")
 
     KIND: ClassVar[str] = "radix"
+    BOUNDS: ClassVar[str] = "monotone int keys; push, decrease_key, remove O(1); pop O(log C) amortized"
     #: Takes only monotone non-negative int keys (the benchmark and tools select by this).
     MONOTONE: ClassVar[bool] = True
     RULES: ClassVar[dict[str, str]] = {

@@ -114,6 +114,7 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
     __slots__ = ("_bins", "_first", "_rs", "_rt", "_work", "_zs")
 
     KIND: ClassVar[str] = "rank-pairing"
+    BOUNDS: ClassVar[str] = "push, meld, decrease_key O(1) amortized; pop, remove, change_key O(log n) amortized"
     _NODE: ClassVar[type[Any]] = _Node
     RULES: ClassVar[dict[str, str]] = {
         "half-order": "no node is smaller than the node whose left subtree holds it",
