@@ -48,7 +48,7 @@ KINDS: Mapping[str, type] = MappingProxyType(
 )
 
 #: The kind the benchmark shows fastest on the decrease-key workloads.
-DEFAULT: str = "lazy"
+DEFAULT: str = "pairing"
 
 
 def new(name: str | None = None, /, **options: object) -> object:
