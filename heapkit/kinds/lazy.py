@@ -94,7 +94,6 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
     """
 
     __slots__ = ("_a", "_stale")
-
     KIND: ClassVar[str] = "lazy"
     BOUNDS: ClassVar[str] = "push O(log n); pop, decrease_key, change_key O(log n) amortized; remove O(1) amortized"
     WORST_CASE: ClassVar[bool] = False
