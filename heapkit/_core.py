@@ -21,35 +21,22 @@ A kind subclasses :class:`HeapBase` and keeps, in its own module, beside its cod
   iteratively, calling ``report.fail(rule, handle, path, detail)``; return the
   figures of :class:`heapkit.Shape` (``size, roots, height, max_degree, marked,
   potential, details``);
-* optional, for checked mode's incremental checks (without them every check
-  is a full ``_survey``):
-
-  - ``_touched(op, handle) -> Any``: called just before ``op`` (``push``
-    with handle None, ``pop`` None, ``decrease_key``/``change_key``/``remove``
-    with a handle live in this heap, ``meld`` with the other heap, which is
-    also how ``extend`` ends); cheap, at most O(the op's own work).  Returns
-    what the op may change (nodes, positions), handed back as ``touched``;
-  - ``_survey_local(report, touched, handle)``: called just after the op
-    (``handle``: the handle pushed/changed/removed, the other heap for meld,
-    None for pop).  Checks the kind's rules around ``touched`` (parent/child
-    order, link symmetry, ownership, marks/ranks where local) and the
-    root/min pointer, reporting like ``_survey`` (it may run ``_survey`` itself
-    when the op changed everything).  Every corruption it can miss, the next
-    full ``_survey`` must find;
-
-* optional, for ``heapkit.to_dot``: ``_dot_edges()`` yielding ``(parent or
-  None, node, extra label)`` for every entry, a parent before its children,
-  lazily and iteratively (``extra``: e.g. ``"degree 3"``, ``"rank 2, marked"``;
-  ``node`` has ``.key``).  A kind that draws nodes beyond its entries (the
-  lazy heap's stale slots) returns an iterator whose ``__length_hint__`` is
-  the total;
-* modes (checked, audit) switch ``heap.__class__`` to a cached subclass
-  marked by a class attribute ``_layer = "<mode>"`` and keep per-heap state in
-  ``heap._ext[<mode>]`` (``_ext`` is None or a dict); each restores exactly
-  the class it replaced;
-* class attributes ``KIND`` (its name in ``heapkit.KINDS``), ``RULES``
-  (rule name -> what it demands), ``WORST_CASE`` (bounds are worst-case, not
-  amortized), ``COST_UNIT``, ``POTENTIAL`` (text) and ``PHI_C``.
+* optional, for checked mode's incremental checks (else every check is a full
+  ``_survey``): ``_touched(op, handle)``, called just before ``op`` (handle:
+  None for push/pop, the live handle, or the other heap for meld/extend), cheap,
+  returns what the op may change; ``_survey_local(report, touched, handle)``,
+  called just after, checks the rules around ``touched`` and the root/min
+  pointer; whatever it can miss, the next full ``_survey`` must find;
+* optional, for ``heapkit.to_dot``: ``_dot_edges()`` lazily yields ``(parent or
+  None, node, extra label)`` for every entry, parents first (an iterator with
+  ``__length_hint__`` when it draws more nodes than entries, as lazy's stale slots);
+* modes (checked, audit) switch ``heap.__class__`` to a cached subclass marked
+  ``_layer = "<mode>"``, keep state in ``heap._ext[<mode>]`` and restore exactly
+  the class they replaced;
+* class attributes ``KIND`` (its name in ``heapkit.KINDS``), ``RULES`` (rule
+  name -> what it demands), ``WORST_CASE``, ``BOUNDS`` (one line), ``COST_UNIT``,
+  ``POTENTIAL`` (text) and ``PHI_C``; the audit hooks ``_phi``, ``_cost_probe``,
+  ``_cost``, ``_bound`` (see ``DEVELOPERS.md``).
 
 Ordering objects
 ================
@@ -70,6 +57,7 @@ live handles and every rule intact.
 from __future__ import annotations
 
 import itertools
+import threading
 from collections.abc import Callable, Iterable, Iterator
 from typing import TYPE_CHECKING, Any, ClassVar, Generic, TypeVar
 
@@ -91,7 +79,9 @@ Wrap = Callable[[Any, Any], Any]
 #: survives meld.  ``next()`` on a count is atomic under the GIL.
 _SEQ = itertools.count()
 
-#: Called with every heap constructed while ``HEAPKIT_DEBUG`` asks for it.
+#: Called with every heap constructed while ``HEAPKIT_DEBUG`` asks for it, except the
+#: heaps heapkit builds for its own use (``_spawn``, flagged in ``_internal``).
+_internal = threading.local()
 on_new: Callable[[HeapBase[Any, Any]], None] | None = None
 
 #: Wrapper types that carry an ``inner`` ordering object (the auditor adds its own).
@@ -252,7 +242,7 @@ class HeapBase(Generic[K, V]):
         """Load the constructor's pairs and honour ``HEAPKIT_DEBUG``; kinds call it last."""
         if pairs:
             self.extend(pairs)
-        if on_new is not None:
+        if on_new is not None and not getattr(_internal, "on", False):
             on_new(self)
 
     # --- what the kind supplies -------------------------------------------------
@@ -388,8 +378,12 @@ class HeapBase(Generic[K, V]):
         return [push(k, v) for k, v in pairs]
 
     def _spawn(self) -> Self:
-        """An empty heap of the same class and options."""
-        return self._family()(stable=self._stable, **self._options())  # type: ignore[no-any-return]
+        """An empty heap of the same class and options, for heapkit's own use (no debug hook)."""
+        _internal.on = True
+        try:
+            return self._family()(stable=self._stable, **self._options())  # type: ignore[no-any-return]
+        finally:
+            _internal.on = False
 
     def meld(self, other: Heap[K, V] | HeapBase[K, V]) -> None:
         """Move every entry of ``other`` into this heap, emptying it.  The kind's meld bound.

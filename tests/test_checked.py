@@ -363,3 +363,20 @@ def test_a_mutated_key_that_the_next_pop_tidies_away_is_still_caught() -> None:
     k[0] = 0                                     # now the smallest, but not at the root
     with pytest.raises(HistoryError, match=r"'minimum' broken at the heap entry \(\[0\], 'five'\)"):
         h.pop()                                  # returns [1]; the pairing puts [0] on top
+
+
+def test_heaps_heapkit_builds_for_its_own_use_are_left_plain() -> None:
+    # extend builds its entries in a temporary heap; HEAPKIT_DEBUG must not audit that one
+    code = (
+        "import gc, heapkit\n"
+        "got = []\n"
+        "heapkit.audit.configure(report=got.append)\n"
+        "h = heapkit.new('pairing')\n"
+        "h.extend([(2, 'b'), (1, 'a')])\n"
+        "gc.collect()\n"
+        "layers = [c.__dict__['_layer'] for c in type(h).__mro__ if '_layer' in c.__dict__]\n"
+        "print(len(got), *layers, h.pop())\n"
+    )
+    out = _python(code, "check,audit")
+    assert out.returncode == 0, out.stderr
+    assert out.stdout.strip() == "0 audit checked (1, 'a')"
