@@ -14,16 +14,9 @@ import math
 from collections.abc import Iterable
 from typing import Any
 
+from heapkit.kinds.pairing_links import _children
+
 __all__ = ["PairingAudit", "Sizes"]
-
-
-def _children(x: Any) -> list[Any]:
-    out = []
-    c = x._child
-    while c is not None:
-        out.append(c)
-        c = c._next
-    return out
 
 
 class Sizes:

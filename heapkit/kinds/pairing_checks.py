@@ -26,16 +26,9 @@ from __future__ import annotations
 from collections.abc import Iterator
 from typing import Any
 
+from heapkit.kinds.pairing_links import _children
+
 __all__ = ["dot_edges", "path_up", "survey_local", "touched"]
-
-
-def _children(x: Any) -> list[Any]:
-    out = []
-    c = x._child
-    while c is not None:
-        out.append(c)
-        c = c._next
-    return out
 
 
 def touched(heap: Any, op: str, handle: Any) -> Any:

@@ -10,7 +10,7 @@ from __future__ import annotations
 
 from typing import Any
 
-__all__ = ["_adopt", "_cut", "_hang", "_link", "_pair_children"]
+__all__ = ["_adopt", "_children", "_cut", "_hang", "_link", "_pair_children"]
 
 
 # Precondition: a and b are detached roots (prev and next are None).
@@ -120,6 +120,16 @@ def _pair_children(parent: Any) -> Any:
     acc._next = None
     parent._child = None
     return acc
+
+
+# x's children, leftmost first (a list: callers walk them while links change).
+def _children(x: Any) -> list[Any]:
+    out = []
+    c = x._child
+    while c is not None:
+        out.append(c)
+        c = c._next
+    return out
 
 
 # Precondition: x is a non-root node.  Restores: x is detached (its subtree
