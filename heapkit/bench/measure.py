@@ -3,14 +3,16 @@ growth, and the cost of the contract modes.
 
 Times are CPU time of this process (``time.process_time``), so other programs on
 a shared machine disturb them less, with the garbage collector paused during
-each run as ``timeit`` does.  Each repetition runs the baseline and the kind one
-after the other (which goes first alternates); the figure reported is the
-**median of the per-repetition ratios** kind / baseline.
+each run as ``timeit`` does.  Each repetition runs the baselines and the kind one
+after the other, the order reversed every other repetition (tuple idiom, docs
+idiom, kind; then kind, docs idiom, tuple idiom); the figures reported are the
+**median of the per-repetition ratios** kind / tuple idiom and kind / docs idiom.
 """
 
 from __future__ import annotations
 
 import contextlib
+import functools
 import gc
 import heapq
 import itertools
@@ -61,18 +63,33 @@ def timed(fn: Callable[[], Any]) -> tuple[float, Any]:
 
 @dataclass
 class Row:
-    """One kind on one workload: its times, the baseline's, and the ratios."""
+    """One kind on one workload: its times, the baselines', and the ratios.
+
+    ``base_*``: the docs' entry-invalidation idiom; ``tuple_*``: the plain tuple
+    idiom (empty where the workload has none).
+    """
 
     kind: str
     kind_s: list[float] = field(default_factory=list)
     base_s: list[float] = field(default_factory=list)
     ratios: list[float] = field(default_factory=list)
+    tuple_s: list[float] = field(default_factory=list)
+    tuple_ratios: list[float] = field(default_factory=list)
     ok: bool = True
 
     @property
     def ratio(self) -> float:
-        """Median of the per-repetition ratios kind / baseline."""
+        """Median of the per-repetition ratios kind / docs idiom."""
         return statistics.median(self.ratios) if self.ratios else math.nan
+
+    @property
+    def tuple_ratio(self) -> float | None:
+        """Median of the per-repetition ratios kind / tuple idiom (None: no tuple idiom)."""
+        return statistics.median(self.tuple_ratios) if self.tuple_ratios else None
+
+
+def _ratio(t: float, base: float) -> float:
+    return t / base if base > 0 else math.inf
 
 
 def time_workload(
@@ -82,35 +99,41 @@ def time_workload(
     repeat: int,
     progress: Progress = _quiet,
 ) -> dict[str, Row]:
-    """Time every admitted kind against the baseline, ``repeat`` times, alternating.
+    """Time every admitted kind against the baselines, ``repeat`` times, alternating.
 
-    The first run of each kind is also checked against the baseline's result.
+    The first run of each kind (and of the tuple idiom) is also checked against
+    the docs idiom's result.
     """
     rows: dict[str, Row] = {}
+    tup = w.tuples
     for name, cls in kinds.items():
         if not w.admits(cls):
             continue
         row = rows[name] = Row(name)
         for rep in range(repeat):
             progress(f"{w.name}: {name} {rep + 1}/{repeat}")
-
-            def base_run() -> Any:
-                return w.baseline(data)
-
-            def kind_run(c: type = cls) -> Any:
-                return w.run(c, data)
-
-            if rep % 2 == 0:
-                tb, base = timed(base_run)
-                tk, got = timed(kind_run)
-            else:
-                tk, got = timed(kind_run)
-                tb, base = timed(base_run)
-            if rep == 0 and not w.same(got, base):
-                row.ok = False
-            row.base_s.append(tb)
-            row.kind_s.append(tk)
-            row.ratios.append(tk / tb if tb > 0 else math.inf)
+            runs: list[tuple[str, Callable[[], Any]]] = [
+                ("docs", functools.partial(w.baseline, data)),
+                ("kind", functools.partial(w.run, cls, data)),
+            ]
+            if tup is not None:
+                runs.insert(0, ("tuple", functools.partial(tup, data)))
+            if rep % 2:
+                runs.reverse()
+            t: dict[str, float] = {}
+            got: dict[str, Any] = {}
+            for label, fn in runs:
+                t[label], got[label] = timed(fn)
+            if rep == 0:
+                row.ok = w.same(got["kind"], got["docs"])
+                if tup is not None and not w.same(got["tuple"], got["docs"]):
+                    raise ValueError(f"{w.name}: the tuple idiom's result differs from the docs idiom's")
+            row.base_s.append(t["docs"])
+            row.kind_s.append(t["kind"])
+            row.ratios.append(_ratio(t["kind"], t["docs"]))
+            if tup is not None:
+                row.tuple_s.append(t["tuple"])
+                row.tuple_ratios.append(_ratio(t["kind"], t["tuple"]))
     return rows
 
 

@@ -2,8 +2,10 @@
 
 Each :class:`Workload` makes its data once (``make(scale)``; scale 1 is the full
 size), then runs it through a heap from ``factory()`` (``run``) and through the
-``heapq`` idiom of :mod:`heapkit.bench.idiom` (``baseline``).  ``same`` says
-whether the two results agree (distances, pop orders).  All data are invented.
+``heapq`` baselines: the plain tuple idiom of :mod:`heapkit.bench.tuples`
+(``tuples``, where it can do the job) and the docs' entry-invalidation idiom of
+:mod:`heapkit.bench.idiom` (``baseline``).  ``same`` says whether two results
+agree (distances, pop orders).  All data are invented.
 
 Capabilities.  A kind whose class sets ``MONOTONE = True`` takes only
 non-negative integer keys that are never below the last key popped (a radix
@@ -20,7 +22,7 @@ from dataclasses import dataclass
 from heapq import heappop, heappush
 from typing import Any
 
-from heapkit.bench import idiom
+from heapkit.bench import idiom, tuples
 from heapkit.bench.graphs import Adjacency, grid_graph, sparse_graph
 
 __all__ = ["WORKLOADS", "Workload", "admits", "dijkstra", "hold", "meld", "scheduler", "sort"]
@@ -50,6 +52,8 @@ class Workload:
     same: Callable[[Any, Any], bool]
     monotone_ok: bool = False
     decrease_key: bool = False
+    #: The plain tuple idiom's run (:mod:`heapkit.bench.tuples`), where it can do the job.
+    tuples: Callable[[Any], Any] | None = None
 
     def admits(self, cls: type) -> bool:
         """True if kind ``cls`` can run this workload (see the module docstring)."""
@@ -326,13 +330,14 @@ def _dijkstra_row(name: str, what: str, make: Callable[[float], Any], monotone_o
         run=lambda f, d: dijkstra(f, *d),
         baseline=lambda d: idiom.dijkstra(*d),
         same=_equal, monotone_ok=monotone_ok, decrease_key=True,
+        tuples=lambda d: tuples.dijkstra(*d),
     )
 
 
 def _sort_row(shape: str) -> Workload:
     return Workload(
         f"sort-{shape}", f"n pushes then n pops, {shape} int keys (n = 1e5)", _sort_data(shape),
-        run=sort, baseline=idiom.sort, same=_same_pops, monotone_ok=True,
+        run=sort, baseline=idiom.sort, same=_same_pops, monotone_ok=True, tuples=tuples.sort,
     )
 
 
@@ -358,6 +363,7 @@ WORKLOADS: dict[str, Workload] = {
         Workload(
             "hold", "discrete-event hold model: 1e5 events, 3e5 pop + push-later", _hold_data,
             run=lambda f, d: hold(f, *d), baseline=lambda d: idiom.hold(*d), same=_equal,
+            tuples=lambda d: tuples.hold(*d),
         ),
     ]
 }
