@@ -1,7 +1,7 @@
 """heapkit: addressable priority queues with handles, contracts and an auditor."""
 
 from heapkit.audit import audit
-from heapkit.concurrent import Asynchronous, Blocking, Locked, asynchronous, blocking, locked
+from heapkit.concurrent import Asynchronous, Blocking, asynchronous, blocking
 from heapkit.contracts import check, checked, to_dot, unchecked
 from heapkit.errors import (
     BoundExceededError,
@@ -28,6 +28,7 @@ from heapkit.kinds import (
     new,
 )
 from heapkit.protocol import Handle, Heap, Shape
+from heapkit.threads import Locked, locked
 
 __all__ = [
     "DEFAULT",

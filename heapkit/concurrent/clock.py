@@ -51,8 +51,10 @@ class ManualClock:
 
     ``wait`` ignores its timeout (no real time passes on this clock); the waiter
     wakes when the condition is notified or when ``advance`` runs.  ``sleepers``
-    counts the threads inside ``wait``; ``wait_for_sleepers(n)`` lets a test know
-    that ``n`` threads are waiting before it moves the clock.
+    counts the threads inside ``wait`` now, ``timeouts`` lists the timeout of
+    every ``wait`` begun (so ``len(timeouts)`` counts them); ``wait_for_waits(n)``
+    lets a test know that the ``n``-th wait has begun before it moves the clock
+    or changes the heap (the waiter is then surely asleep on its condition).
 
     >>> c = ManualClock(10.0); c.advance(2.5); c.now()
     12.5
@@ -63,6 +65,7 @@ class ManualClock:
         self._state = threading.Condition(threading.Lock())
         self._conditions: list[threading.Condition] = []
         self.sleepers = 0
+        self.timeouts: list[float | None] = []
 
     def now(self) -> float:
         """The clock's time.  O(1)."""
@@ -76,6 +79,7 @@ class ManualClock:
             if not any(c is condition for c in self._conditions):
                 self._conditions.append(condition)
             self.sleepers += 1
+            self.timeouts.append(timeout)
             self._state.notify_all()
         try:
             condition.wait()
@@ -99,11 +103,11 @@ class ManualClock:
             with c:
                 c.notify_all()
 
-    def wait_for_sleepers(self, n: int, timeout: float = 30.0) -> bool:
-        """Block (real time, at most ``timeout`` s) until ``n`` threads wait; True if they do.
+    def wait_for_waits(self, n: int, timeout: float = 30.0) -> bool:
+        """Block (real time, at most ``timeout`` s) until ``n`` waits have begun; True if so.  O(1).
 
-        >>> ManualClock().wait_for_sleepers(0)
+        >>> ManualClock().wait_for_waits(0)
         True
         """
         with self._state:
-            return self._state.wait_for(lambda: self.sleepers >= n, timeout)
+            return self._state.wait_for(lambda: len(self.timeouts) >= n, timeout)
