@@ -101,7 +101,8 @@ class Blocking(Wrapper[K, V]):
         >>> blocking(BinaryHeap(), capacity=1).push(1, 'a').key
         1
         """
-        _timeout("push", timeout)
+        if timeout is not None:
+            _timeout("push", timeout)
         g = self._guard
         with g.lock:
             if g.closed or self.capacity is not None:
@@ -158,12 +159,32 @@ class Blocking(Wrapper[K, V]):
         ...
         heapkit.errors.EmptyHeapError: pop: nothing to pop within timeout=0
         """
-        _timeout("pop", timeout)
+        if timeout is not None:
+            _timeout("pop", timeout)
         g = self._guard
         with g.lock:
-            if self._due is None and self.inner:
-                return self._take()
+            inner = self.inner
+            if self._due is None:
+                if not inner and timeout is None and self.clock is SYSTEM:
+                    self._wait_any()
+                if inner:  # the hot path, inlined (measured: ~5% of the producer-consumer run)
+                    out = inner.pop()
+                    if g.pushers:
+                        g.shrank()
+                    return out
             return self._wait_pop(timeout)
+
+    def _wait_any(self) -> None:
+        """Lock held: wait (system clock, no timeout, no due times) until the heap is not empty."""
+        g = self._guard
+        while not self.inner:
+            if g.closed:
+                raise closed_error("pop")
+            g.poppers += 1
+            try:
+                g.ready.wait()
+            finally:
+                g.poppers -= 1
 
     def _wait_pop(self, timeout: float | None) -> tuple[K, V]:
         g = self._guard
