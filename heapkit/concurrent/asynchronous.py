@@ -16,11 +16,10 @@ from __future__ import annotations
 import asyncio
 import contextlib
 import threading
-from collections.abc import Iterable
 from typing import TypeVar
 
-from heapkit.concurrent.guard import Wrapper, closed_error, pairs_list
-from heapkit.protocol import Handle, Heap
+from heapkit.concurrent.guard import Wrapper, closed_error
+from heapkit.protocol import Heap
 
 __all__ = ["Asynchronous", "asynchronous"]
 
@@ -48,55 +47,6 @@ class Asynchronous(Wrapper[K, V]):
         self._waiters: list[asyncio.Future[None]] = []
         self._loop: asyncio.AbstractEventLoop | None = None
         self._thread = 0
-
-    def push(self, key: K, value: V) -> Handle[K, V]:
-        """Insert (never waits) and wake the awaiting pops; the kind's bound plus one lock.
-
-        >>> from heapkit import BinaryHeap
-        >>> asynchronous(BinaryHeap()).push(1, 'a').key
-        1
-        """
-        g = self._guard
-        with g.lock:
-            if g.closed:
-                raise closed_error("push")
-            h = self.inner.push(key, value)
-            if g.poppers or g.watchers:
-                g.grew(1)
-            return h
-
-    def extend(self, pairs: Iterable[tuple[K, V]]) -> list[Handle[K, V]]:
-        """Insert many, all or nothing; the kind's extend plus one lock.
-
-        >>> from heapkit import BinaryHeap
-        >>> len(asynchronous(BinaryHeap()).extend([(2, 'b'), (1, 'a')]))
-        2
-        """
-        pairs = pairs_list(pairs)
-        with self._guard.lock:
-            if self._guard.closed:
-                raise closed_error("extend")
-            return self._extend_under_lock(pairs)
-
-    def _room_for_meld(self, k: int) -> None:
-        if self._guard.closed:
-            raise closed_error("meld")
-
-    def pop_now(self) -> tuple[K, V]:
-        """Remove and return a smallest entry without waiting; ``EmptyHeapError`` if none.
-
-        >>> from heapkit import BinaryHeap
-        >>> asynchronous(BinaryHeap([(1, 'a')])).pop_now()
-        (1, 'a')
-        """
-        g = self._guard
-        with g.lock:
-            if not self.inner and g.closed:
-                raise closed_error("pop_now")
-            out = self.inner.pop()
-            if g.pushers:
-                g.shrank()
-            return out
 
     async def pop(self) -> tuple[K, V]:
         """Remove and return a smallest entry, awaiting one if the queue is empty.
@@ -164,21 +114,6 @@ class Asynchronous(Wrapper[K, V]):
         for f in tuple(self._waiters):
             if not f.done():
                 f.set_result(None)
-
-    def close(self) -> None:
-        """Refuse later pushes; awaiting pops drain what is left, then get ``ClosedError``.  O(waiters).
-
-        >>> from heapkit import BinaryHeap
-        >>> q = asynchronous(BinaryHeap()); q.close(); q.closed
-        True
-        """
-        with self._guard.lock:
-            self._guard.close()
-
-    @property
-    def closed(self) -> bool:
-        """True once ``close()`` was called on any wrapper of this heap."""
-        return self._guard.closed
 
 
 def asynchronous(heap: Heap[K, V]) -> Asynchronous[K, V]:

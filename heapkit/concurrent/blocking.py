@@ -126,9 +126,7 @@ class Blocking(Wrapper[K, V]):
             return self._extend_under_lock(pairs)
 
     def _room_for_meld(self, k: int) -> None:
-        g = self._guard
-        if g.closed:
-            raise closed_error("meld")
+        super()._room_for_meld(k)
         cap = self.capacity
         if cap is not None and len(self.inner) + k > cap:
             raise FullHeapError(f"meld: {k} more entries exceed capacity {cap!r} (meld never waits)")
@@ -234,22 +232,6 @@ class Blocking(Wrapper[K, V]):
             if self._due is not None and self._due_in() is not None:
                 raise EmptyHeapError("pop_now: no entry is due yet")
             return self._take()
-
-    # --- closing ---------------------------------------------------------------------
-    def close(self) -> None:
-        """Refuse later pushes; waiting pops drain what is left, then get ``ClosedError``.  O(waiters).
-
-        >>> from heapkit import BinaryHeap
-        >>> q = blocking(BinaryHeap([(1, 'a')])); q.close(); q.pop(), q.closed
-        ((1, 'a'), True)
-        """
-        with self._guard.lock:
-            self._guard.close()
-
-    @property
-    def closed(self) -> bool:
-        """True once ``close()`` was called on any wrapper of this heap."""
-        return self._guard.closed
 
 
 def blocking(heap: Heap[K, V], *, capacity: int | None = None,

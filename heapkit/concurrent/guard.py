@@ -123,6 +123,11 @@ def closed_error(op: str) -> ClosedError:
     return ClosedError(f"{op}: the queue is closed")
 
 
+def pairs_list(pairs: Iterable[tuple[K, V]]) -> list[tuple[K, V]]:
+    """The pairs as a list, read before any lock is taken (a generator may be slow)."""
+    return pairs if isinstance(pairs, list) else list(pairs)
+
+
 class Wrapper(Generic[K, V]):
     """What every concurrent wrapper shares: the inner heap, its guard, the protocol's
     handle operations under the lock, and ``held()`` (the lock and the inner heap)."""
@@ -162,6 +167,70 @@ class Wrapper(Generic[K, V]):
             self._guard.grew(len(out))
         return out
 
+    def push(self, key: K, value: V) -> Handle[K, V]:
+        """Insert (never waits); the kind's bound plus one lock.  ``ClosedError`` once closed.
+
+        >>> from heapkit import BinaryHeap, locked
+        >>> locked(BinaryHeap()).push(1, 'a').key
+        1
+        """
+        g = self._guard
+        with g.lock:
+            if g.closed:
+                raise closed_error("push")
+            h = self.inner.push(key, value)
+            if g.poppers or g.watchers:
+                g.grew(1)
+            return h
+
+    def extend(self, pairs: Iterable[tuple[K, V]]) -> list[Handle[K, V]]:
+        """Insert many, all or nothing; the kind's extend plus one lock.  The pairs are read
+        before the lock is taken.
+
+        >>> from heapkit import BinaryHeap, locked
+        >>> len(locked(BinaryHeap()).extend([(2, 'b'), (1, 'a')]))
+        2
+        """
+        pairs = pairs_list(pairs)
+        with self._guard.lock:
+            if self._guard.closed:
+                raise closed_error("extend")
+            return self._extend_under_lock(pairs)
+
+    def pop_now(self) -> tuple[K, V]:
+        """Remove and return a smallest entry without waiting; the kind's bound plus one lock.
+
+        ``EmptyHeapError`` if there is none (``ClosedError`` if closed as well).
+
+        >>> from heapkit import BinaryHeap, locked
+        >>> locked(BinaryHeap([(1, 'a')])).pop_now()
+        (1, 'a')
+        """
+        g = self._guard
+        with g.lock:
+            if g.closed and not self.inner:
+                raise closed_error("pop_now")
+            out = self.inner.pop()
+            if g.pushers:
+                g.shrank()
+            return out
+
+    def close(self) -> None:
+        """Refuse later pushes through any wrapper of this heap; waiting pops drain what is
+        left, then get ``ClosedError``.  O(waiters).
+
+        >>> from heapkit import BinaryHeap, locked
+        >>> q = locked(BinaryHeap([(1, 'a')])); q.close(); q.pop(), q.closed
+        ((1, 'a'), True)
+        """
+        with self._guard.lock:
+            self._guard.close()
+
+    @property
+    def closed(self) -> bool:
+        """True once ``close()`` was called on any wrapper of this heap.  O(1)."""
+        return self._guard.closed
+
     def peek(self) -> Handle[K, V]:
         """The handle of a smallest entry; the kind's bound plus one lock.
 
@@ -179,11 +248,7 @@ class Wrapper(Generic[K, V]):
         >>> q = locked(BinaryHeap()); h = q.push(5, 'a'); q.decrease_key(h, 1); h.key
         1
         """
-        g = self._guard
-        with g.lock:
-            self.inner.decrease_key(handle, key)
-            if g.timers or g.watchers:
-                g.rekeyed()
+        self._rekey(self.inner.decrease_key, handle, key)
 
     def change_key(self, handle: Handle[K, V], key: K) -> None:
         """Give the entry any key; the kind's bound plus one lock.
@@ -192,9 +257,12 @@ class Wrapper(Generic[K, V]):
         >>> q = locked(BinaryHeap()); h = q.push(5, 'a'); q.change_key(h, 9); h.key
         9
         """
+        self._rekey(self.inner.change_key, handle, key)
+
+    def _rekey(self, op: Callable[[Handle[K, V], K], None], handle: Handle[K, V], key: K) -> None:
         g = self._guard
         with g.lock:
-            self.inner.change_key(handle, key)
+            op(handle, key)
             if g.timers or g.watchers:
                 g.rekeyed()
 
@@ -213,7 +281,9 @@ class Wrapper(Generic[K, V]):
             return out
 
     def _room_for_meld(self, k: int) -> None:
-        """Called under both locks before a meld brings in ``k`` entries (capacity, closed)."""
+        """Called under both locks before a meld brings in ``k`` entries (closed; capacity)."""
+        if self._guard.closed:
+            raise closed_error("meld")
 
     def meld(self, other: Heap[K, V]) -> None:
         """Move every entry of ``other`` (a bare heap or any wrapper) in here; the kind's meld bound.
@@ -274,8 +344,3 @@ class Wrapper(Generic[K, V]):
     def __repr__(self) -> str:
         with self._guard.lock:
             return f"{type(self).__name__.lower()}({self.inner!r})"
-
-
-def pairs_list(pairs: Iterable[tuple[K, V]]) -> list[tuple[K, V]]:
-    """The pairs as a list, read before any lock is taken (a generator may be slow)."""
-    return pairs if isinstance(pairs, list) else list(pairs)

@@ -9,11 +9,10 @@ handles taken under the lock.
 
 from __future__ import annotations
 
-from collections.abc import Iterable
 from typing import Any, TypeVar
 
-from heapkit.concurrent.guard import Wrapper, pairs_list
-from heapkit.protocol import Handle, Heap
+from heapkit.concurrent.guard import Wrapper
+from heapkit.protocol import Heap
 
 __all__ = ["Locked", "locked", "unwrap"]
 
@@ -35,31 +34,6 @@ class Locked(Wrapper[K, V]):
     def __init__(self, inner: Heap[K, V]) -> None:
         super().__init__(inner, "locked")
 
-    def push(self, key: K, value: V) -> Handle[K, V]:
-        """Insert; the kind's bound plus one lock.
-
-        >>> from heapkit import BinaryHeap
-        >>> locked(BinaryHeap()).push(1, 'a').key
-        1
-        """
-        g = self._guard
-        with g.lock:
-            h = self.inner.push(key, value)
-            if g.poppers or g.watchers:
-                g.grew(1)
-            return h
-
-    def extend(self, pairs: Iterable[tuple[K, V]]) -> list[Handle[K, V]]:
-        """Insert many, all or nothing; the pairs are read before the lock is taken.
-
-        >>> from heapkit import BinaryHeap
-        >>> len(locked(BinaryHeap()).extend([(2, 'b'), (1, 'a')]))
-        2
-        """
-        pairs = pairs_list(pairs)
-        with self._guard.lock:
-            return self._extend_under_lock(pairs)
-
     def pop(self) -> tuple[K, V]:
         """Remove and return a smallest entry (``EmptyHeapError`` if none; never waits).
 
@@ -67,12 +41,7 @@ class Locked(Wrapper[K, V]):
         >>> locked(BinaryHeap([(2, 'b'), (1, 'a')])).pop()
         (1, 'a')
         """
-        g = self._guard
-        with g.lock:
-            out = self.inner.pop()
-            if g.pushers:
-                g.shrank()
-            return out
+        return self.pop_now()
 
 
 def locked(heap: Heap[K, V]) -> Locked[K, V]:
