@@ -271,3 +271,32 @@ def test_blocking_eight_threads_hundred_thousand_ops_each() -> None:
 @pytest.mark.parametrize("name", [n for n in NAMES if not monotone(n)])
 def test_blocking_eight_threads_every_kind(name: str) -> None:
     _stress(name, 3_000)
+
+
+def test_the_lock_registry_keeps_no_heap_alive() -> None:
+    import gc
+    import weakref
+
+    from heapkit.concurrent import guard
+
+    h = heapkit.PairingHeap([(1, "a")])
+    q = heapkit.blocking(h)
+    ref = weakref.ref(h)
+    assert id(h) in guard._GUARDS
+    key = id(h)
+    del h, q
+    gc.collect()
+    assert ref() is None
+    assert key not in guard._GUARDS or guard._GUARDS[key][0]() is not None
+
+
+def test_a_queue_without_weak_references_is_refused() -> None:
+    class Slotted(heapkit.testing.ReferenceHeap):  # type: ignore[misc]
+        __slots__ = ()
+
+    class Tight:
+        __slots__ = ("inner",)
+
+    with pytest.raises(TypeError, match="__weakref__"):
+        heapkit.locked(Tight())  # type: ignore[arg-type]
+    assert heapkit.locked(Slotted()).lock is not None  # a subclass keeps its base's __weakref__
