@@ -60,8 +60,9 @@ class Guard:
                 self.ready.notify_all()
             else:
                 self.ready.notify(k)
-        for w in tuple(self.watchers):
-            w()
+        if self.watchers:
+            for w in tuple(self.watchers):
+                w()
 
     def rekeyed(self) -> None:
         """A key changed: a popper waiting for a due time must look again.  O(waiters).
