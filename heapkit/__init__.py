@@ -1,10 +1,13 @@
 """heapkit: addressable priority queues with handles, contracts and an auditor."""
 
 from heapkit.audit import audit
+from heapkit.concurrent import Asynchronous, Blocking, asynchronous, blocking
 from heapkit.contracts import check, checked, to_dot, unchecked
 from heapkit.errors import (
     BoundExceededError,
+    ClosedError,
     EmptyHeapError,
+    FullHeapError,
     HeapError,
     InvalidHandleError,
     InvariantError,
@@ -30,12 +33,16 @@ from heapkit.threads import Locked, locked
 __all__ = [
     "DEFAULT",
     "KINDS",
+    "Asynchronous",
     "BinaryHeap",
     "BinomialHeap",
+    "Blocking",
     "BoundExceededError",
+    "ClosedError",
     "DaryHeap",
     "EmptyHeapError",
     "FibonacciHeap",
+    "FullHeapError",
     "Handle",
     "Heap",
     "HeapError",
@@ -49,7 +56,9 @@ __all__ = [
     "RadixHeap",
     "RankPairingHeap",
     "Shape",
+    "asynchronous",
     "audit",
+    "blocking",
     "check",
     "checked",
     "locked",

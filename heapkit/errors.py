@@ -8,7 +8,9 @@ from __future__ import annotations
 
 __all__ = [
     "BoundExceededError",
+    "ClosedError",
     "EmptyHeapError",
+    "FullHeapError",
     "HeapError",
     "InvalidHandleError",
     "InvariantError",
@@ -47,6 +49,14 @@ class InvariantError(HeapError, AssertionError):
 
 class BoundExceededError(HeapError, AssertionError):
     """An audited operation cost more than its kind's documented bound."""
+
+
+class ClosedError(HeapError, RuntimeError):
+    """A push into a closed concurrent queue, or a pop from one that is closed and drained."""
+
+
+class FullHeapError(HeapError, OverflowError):
+    """A concurrent queue stayed at its capacity for the whole timeout of a push."""
 
 
 # --- the messages kinds raise (``heapkit._core`` re-exports them) ---------------

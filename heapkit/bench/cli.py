@@ -17,7 +17,7 @@ from collections.abc import Callable, Mapping
 from typing import Any
 
 import heapkit
-from heapkit.bench import measure
+from heapkit.bench import concurrency, measure
 from heapkit.bench.workloads import WORKLOADS
 
 __all__ = ["SECTIONS", "add_parser", "run", "suggest_default"]
@@ -28,6 +28,7 @@ SECTIONS = {
     "memory": "bytes per entry (tracemalloc, handles included)",
     "growth": "time per operation as n grows",
     "contracts": "cost of the contract modes on Dijkstra, to a plain heap",
+    "concurrency": "heapkit.blocking against queue.PriorityQueue, producer-consumer threads",
 }
 
 #: (full, quick) sizes of each section and the scale of the workloads.
@@ -39,6 +40,7 @@ SIZES: dict[str, tuple[Any, Any]] = {
     "growth": ([10_000, 100_000, 1_000_000], [1_000, 10_000]),
     "contracts": (0.2, 0.05),
     "contracts-small": (0.01, 0.002),
+    "concurrency": (100_000, 5_000),
 }
 
 
@@ -188,6 +190,11 @@ def run(args: argparse.Namespace) -> int:
         report["contracts"] = {"workload": w.name, "scale": SIZES["contracts"][q],
                                "small_scale": SIZES["contracts-small"][q], "modes": measure.MODES,
                                "ratios": measure.modes(kinds, w, data, small, repeat, say)}
+    if "concurrency" in wanted:
+        report["concurrency"] = concurrency.producer_consumer(
+            SIZES["concurrency"][q], {k: v for k, v in kinds.items() if not getattr(v, "MONOTONE", False)},
+            repeat, progress=say)
+        failed = failed or not all(r["ok"] for r in report["concurrency"]["kinds"].values())
     report["suggested_default"] = suggest_default(report["workloads"])
     if sys.stderr.isatty():
         sys.stderr.write("\n")
@@ -266,6 +273,8 @@ def render(report: Mapping[str, Any]) -> str:
             out.append("  " + k.ljust(14) + "".join(_cell(row.get(m), 10) for m in modes))
         out += [f"  {m}: {what}" for m, what in c["modes"].items()]
         out.append("  n/a: that feature is not in this heapkit; failed: the mode raised an error")
+    if "concurrency" in report:
+        out += concurrency.render(report["concurrency"])
     if wl:
         out += ["", "fastest kind per workload:"]
         for name, r in wl.items():

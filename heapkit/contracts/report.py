@@ -13,6 +13,7 @@ from collections.abc import Sequence
 from typing import Any
 
 from heapkit._core import HeapBase
+from heapkit.concurrent.guard import Wrapper
 from heapkit.errors import HeapError, InvariantError
 from heapkit.protocol import Shape
 
@@ -113,7 +114,8 @@ def check(heap: Any) -> Shape:
     Returns the heap's :class:`Shape`; raises :class:`InvariantError` naming each
     broken rule (up to ``LIMIT``), the entry ``(key, value)`` and the path from a
     root to it.  On a queue that only satisfies the protocol, checks what the
-    protocol can show (``PROTOCOL_RULES``).  O(n) worst-case.
+    protocol can show (``PROTOCOL_RULES``); on a concurrent wrapper, checks the
+    inner heap holding its lock for the whole check.  O(n) worst-case.
 
     >>> from heapkit import PairingHeap
     >>> check(PairingHeap([(2, 'b'), (1, 'a')])).size
@@ -127,6 +129,9 @@ def check(heap: Any) -> Shape:
     heapkit.errors.InvariantError: PairingHeap: 1 broken rule(s)
       rule 'heap-order' broken at root → child 0 entry (0, 'b'): key 0 is smaller than its parent's 1
     """
+    if isinstance(heap, Wrapper):  # locked/blocking/asynchronous: the inner heap, under its lock, once
+        with heap.held() as inner:
+            return check(inner)
     if not isinstance(heap, HeapBase):
         return _check_protocol(heap)
     report = Report()
