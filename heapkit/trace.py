@@ -49,7 +49,14 @@ _log = logging.getLogger("heapkit.trace")
 
 
 class TraceError(HeapError, ValueError):
-    """A trace that cannot be read, replayed or written; the message names the file and line."""
+    """A trace that cannot be read, replayed or written; the message names the file and line.
+
+    ``line`` and ``op``: the trace line and its operation, when the replay of one failed.
+    """
+
+    def __init__(self, message: str, *, line: int | None = None, op: str | None = None) -> None:
+        super().__init__(message)
+        self.line, self.op = line, op
 
 
 def _json_key(key: Any, op: str) -> Any:
@@ -413,7 +420,7 @@ def replay(
         except TraceError:
             raise
         except HeapError as exc:
-            raise TraceError(f"{name}:{lineno}: {what} failed: {exc}") from exc
+            raise TraceError(f"{name}:{lineno}: {what} failed: {exc}", line=lineno, op=what) from exc
         out.operations += 1
         out.counts[what] = out.counts.get(what, 0) + 1
         if each is not None:
