@@ -242,9 +242,13 @@ class Recorder:
         t.open("pop")
         h = self.inner.peek() if self.inner else None
         key, value = self.inner.pop()
-        n = t.entry(h)
-        t.forget(h)
-        t.write(t.line("pop", q=self.q, id=n, key=_json_key(key, "pop")))
+        ident: dict[str, int] = {}
+        if not getattr(h, "alive", False):  # the entry peek named is the one popped: name it
+            n = t.ids.get(id(h))
+            t.forget(h)
+            if n is not None:
+                ident["id"] = n
+        t.write(t.line("pop", q=self.q, **ident, key=_json_key(key, "pop")))
         return key, value
 
     def decrease_key(self, handle: Any, key: Any) -> None:

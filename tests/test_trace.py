@@ -251,3 +251,21 @@ def test_a_failing_write_loses_no_entry(room: int, caplog: pytest.LogCaptureFixt
     with pytest.raises(trace.TraceError, match=f"incomplete: writing line {room + 1} failed"):
         q.close()
     assert len(f.getvalue().splitlines()) == room  # the lines before the failure, nothing after
+
+
+class PeekNamesAnother(heapkit.PairingHeap):  # type: ignore[type-arg]
+    """Deliberately off: peek names the newest entry among equal keys, pop takes another."""
+
+    def peek(self) -> Any:
+        top = super().peek()
+        return max((h for h in self if not (top.key < h.key)), key=lambda h: h.value)
+
+
+def test_a_pop_that_is_not_the_peeked_entry_orphans_nothing(tmp_path: Path) -> None:
+    path = tmp_path / "t.jsonl"
+    with trace.record(PeekNamesAnother(), path) as q:
+        a, b = q.push(1, 0), q.push(1, 1)
+        assert q.pop()[0] == 1
+        left = a if a.alive else b
+        assert q.remove(left) == (1, left.value)  # the entry that stayed can still be removed
+    assert trace.replay(path, "binary").popped == [1]

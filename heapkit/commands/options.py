@@ -38,7 +38,7 @@ def plain(doc: str | None) -> str:
 def add_kinds(p: argparse.ArgumentParser) -> None:
     """Add ``--kinds`` (comma-separated; spaces are accepted too)."""
     p.add_argument(
-        "--kinds", nargs="+", metavar="KIND,...",
+        "--kinds", nargs="+", metavar="KINDS",
         help=f"kinds to run, comma-separated (default: all): {','.join(sorted(heapkit.KINDS))}",
     )
 
