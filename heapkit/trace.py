@@ -423,7 +423,7 @@ def replay(
                 q.clear()
         except TraceError:
             raise
-        except HeapError as exc:
+        except (HeapError, TypeError) as exc:  # TypeError: keys that cannot be compared
             raise TraceError(f"{name}:{lineno}: {what} failed: {exc}", line=lineno, op=what) from exc
         out.operations += 1
         out.counts[what] = out.counts.get(what, 0) + 1

@@ -52,6 +52,7 @@ def _not_run(monkeypatch: pytest.MonkeyPatch) -> None:
         (GOOD + b'{"op":"meld","q":0,"from":0}\n', ":2: meld: queue 0 cannot be melded into itself"),
         (b'{"op":"push","q":0,"id":0,"key":[NaN,0]}\n{"op":"push","q":0,"id":1,"key":[1,0]}\n', ":1: a key holds NaN"),
         (GOOD + GOOD, ":2: id 0 pushed twice"),
+        (GOOD + b'{"op":"push","q":0,"id":1,"key":"a"}\n', ":2: push failed: '<' not supported"),
     ],
 )
 def test_replay_of_a_hostile_trace_is_one_line_and_exit_2(
