@@ -9,6 +9,7 @@ import argparse
 import sys
 from collections.abc import Sequence
 
+import heapkit
 from heapkit.bench.cli import add_parser as add_bench_parser
 from heapkit.commands import demo, kinds, replay
 
@@ -19,6 +20,7 @@ def parser() -> argparse.ArgumentParser:
         description="Addressable priority queues: demo, trace replay across kinds, benchmark.",
         epilog="exit codes: 0 ok, 1 a check or bound failed, 2 bad usage or input",
     )
+    p.add_argument("--version", action="version", version=f"heapkit {heapkit.__version__}")
     sub = p.add_subparsers(dest="command", required=True, metavar="COMMAND")
     demo.add_parser(sub)
     replay.add_parser(sub)

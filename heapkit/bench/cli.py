@@ -19,6 +19,8 @@ from typing import Any
 import heapkit
 from heapkit.bench import concurrency, measure
 from heapkit.bench.workloads import WORKLOADS
+from heapkit.commands.options import Output, UsageError, add_kinds, chosen_kinds, fail
+from heapkit.commands.recommend import Recommendation, recommend
 
 __all__ = ["SECTIONS", "add_parser", "run", "suggest_default"]
 
@@ -64,19 +66,12 @@ def add_parser(subparsers: Any) -> argparse.ArgumentParser:
     )
     p.add_argument("--workload", action="append", metavar="NAME",
                    help="a workload or section to run (repeat or comma-separate; default: all)")
-    p.add_argument("--kinds", metavar="K1,K2", help="kinds to run (default: every kind in heapkit.KINDS)")
+    add_kinds(p)
     p.add_argument("--quick", action="store_true", help="small sizes (about 1/20), fewer repetitions")
     p.add_argument("--json", metavar="PATH", help="also write every figure to PATH as JSON")
     p.add_argument("--repeat", type=int, metavar="N", help="repetitions per kind (default 5, quick 3)")
-    p.set_defaults(run=run, bench_parser=p)
+    p.set_defaults(run=run)
     return p
-
-
-def _fail_usage(args: argparse.Namespace, message: str) -> int:
-    parser: argparse.ArgumentParser = args.bench_parser
-    parser.print_usage(sys.stderr)
-    print(f"heapkit bench: error: {message}", file=sys.stderr)
-    return 2
 
 
 def _progress() -> Callable[[str], None]:
@@ -102,41 +97,64 @@ def _cell(value: float | str | None, width: int, fmt: str = ".2f") -> str:
     return format(value, fmt).rjust(width)
 
 
-def suggest_default(results: Mapping[str, Mapping[str, Any]]) -> str | None:
-    """The kind with the smallest geometric-mean ratio over the decrease-key workloads
-    it ran correctly; only kinds that ran all of them compete.
+def _ratio(r: float) -> str:
+    return f"{r:.2f}x"
 
-    >>> suggest_default({"dijkstra-grid": {"kinds": {"a": {"ratio": 2.0, "ok": True},
-    ...                                              "b": {"ratio": 1.5, "ok": True}}}})
+
+def suggestion(results: Mapping[str, Mapping[str, Any]]) -> Recommendation:
+    """The shared recommendation rule over the decrease-key workloads: per repetition i,
+    a kind's figure is the geometric mean of its i-th ratios over those workloads;
+    only kinds that ran all of them correctly compete.
+
+    >>> suggestion({"dijkstra-grid": {"kinds": {"a": {"ratios": [2.0, 2.1, 1.9], "ok": True},
+    ...                                         "b": {"ratios": [1.5, 1.4, 1.6], "ok": True}}}}).best
     'b'
     """
     dk = [name for name in results if name in WORKLOADS and WORKLOADS[name].decrease_key]
-    if not dk:
-        return None
-    scores: dict[str, list[float]] = {}
+    per: dict[str, list[list[float]]] = {}
     for name in dk:
         for kind, cell in results[name]["kinds"].items():
-            if cell["ok"] and cell["ratio"] is not None:
-                scores.setdefault(kind, []).append(cell["ratio"])
-    full = {k: statistics.geometric_mean(v) for k, v in scores.items() if len(v) == len(dk)}
-    return min(full, key=full.__getitem__) if full else None
+            if cell["ok"] and cell["ratios"]:
+                per.setdefault(kind, []).append(cell["ratios"])
+    samples = {k: [statistics.geometric_mean(col) for col in zip(*v, strict=False)]
+               for k, v in per.items() if len(v) == len(dk)}
+    return recommend(samples, _ratio)
+
+
+def suggest_default(results: Mapping[str, Mapping[str, Any]]) -> str | None:
+    """The kind :func:`suggestion` recommends, or None (no clear winner).
+
+    >>> suggest_default({})
+    """
+    return suggestion(results).best
 
 
 def run(args: argparse.Namespace) -> int:
     """Run the benchmark the arguments ask for; print the report on stdout."""
-    wanted = [n for item in (args.workload or []) for n in item.split(",") if n]
-    unknown = [n for n in wanted if n not in WORKLOADS and n not in SECTIONS]
-    if unknown:
-        return _fail_usage(args, f"unknown workload {unknown[0]!r}; choose from "
-                           + ", ".join([*WORKLOADS, *SECTIONS]))
-    if not wanted:
-        wanted = [*WORKLOADS, *SECTIONS]
-    names = [n for n in (args.kinds or "").split(",") if n] or list(heapkit.KINDS)
-    bad = [n for n in names if n not in heapkit.KINDS]
-    if bad:
-        return _fail_usage(args, f"unknown kind {bad[0]!r}; known kinds: " + ", ".join(heapkit.KINDS))
-    if args.repeat is not None and args.repeat < 1:
-        return _fail_usage(args, f"--repeat must be at least 1, got {args.repeat}")
+    out = None
+    try:
+        wanted = [n for item in (args.workload or []) for n in item.split(",") if n]
+        unknown = [n for n in wanted if n not in WORKLOADS and n not in SECTIONS]
+        if unknown:
+            raise UsageError(f"unknown workload {unknown[0]!r}; choose from " + ", ".join([*WORKLOADS, *SECTIONS]))
+        names = chosen_kinds(args.kinds, default=list(heapkit.KINDS))
+        if args.repeat is not None and args.repeat < 1:
+            raise UsageError(f"--repeat must be at least 1, got {args.repeat}")
+        out = Output(args.json, "--json") if args.json else None  # checked before the run
+        report = _measure(args, wanted or [*WORKLOADS, *SECTIONS], names)
+        print(render(report))
+        if out:
+            out.commit(json.dumps(_jsonable(report), indent=1))
+    except (UsageError, OSError) as exc:
+        return fail("bench", exc)
+    finally:
+        if out:
+            out.discard()
+    return 1 if report["failed"] else 0
+
+
+def _measure(args: argparse.Namespace, wanted: list[str], names: list[str]) -> dict[str, Any]:
+    """Every figure the arguments ask for, as the report ``render`` prints."""
     q = 1 if args.quick else 0
     repeat = args.repeat or SIZES["repeat"][q]
     kinds = {n: heapkit.KINDS[n] for n in names}
@@ -160,14 +178,14 @@ def run(args: argparse.Namespace) -> int:
         cells = {k: {"ratio": r.ratio, "ok": r.ok, "ratios": r.ratios, "kind_s": r.kind_s,
                      "base_s": r.base_s, "tuple_ratio": r.tuple_ratio, "tuple_ratios": r.tuple_ratios,
                      "tuple_s": r.tuple_s} for k, r in rows.items()}
-        good = {k: r.ratio for k, r in rows.items() if r.ok}
         failed = failed or not all(r.ok for r in rows.values())
         base = [t for r in rows.values() for t in r.base_s]
         tup = [t for r in rows.values() for t in r.tuple_s]
+        verdict = recommend({k: r.ratios for k, r in rows.items() if r.ok}, _ratio)
         report["workloads"][name] = {
             "what": w.what, "baseline_s": statistics.median(base) if base else None,
             "tuple_s": statistics.median(tup) if tup else None,
-            "kinds": cells, "fastest": min(good, key=good.__getitem__) if good else None,
+            "kinds": cells, "fastest": verdict.best, "verdict": verdict.line,
         }
     if "comparisons" in wanted:
         n = SIZES["comparisons"][q]
@@ -195,14 +213,12 @@ def run(args: argparse.Namespace) -> int:
             SIZES["concurrency"][q], {k: v for k, v in kinds.items() if not getattr(v, "MONOTONE", False)},
             repeat, progress=say)
         failed = failed or not all(r["ok"] for r in report["concurrency"]["kinds"].values())
-    report["suggested_default"] = suggest_default(report["workloads"])
+    advice = suggestion(report["workloads"])
+    report["suggested_default"], report["suggestion"] = advice.best, advice.line
+    report["failed"] = failed
     if sys.stderr.isatty():
         sys.stderr.write("\n")
-    print(render(report))
-    if args.json:
-        with open(args.json, "w", encoding="utf-8") as f:
-            json.dump(_jsonable(report), f, indent=1)
-    return 1 if failed else 0
+    return report
 
 
 def _jsonable(x: Any) -> Any:
@@ -235,13 +251,14 @@ def render(report: Mapping[str, Any]) -> str:
             if not rows:
                 continue
             out += ["", f"kind / {title}", "workload".ljust(17) + "base s".rjust(9)
-                    + "".join(k.rjust(width) for k in kinds)]
+                    + "".join(k.rjust(width) for k in kinds) + "  fastest"]
             for name, r in rows.items():
                 cells = []
                 for k in kinds:
                     c = r["kinds"].get(k)
                     cells.append(_cell(None if c is None else (c[ratio] if c["ok"] else "WRONG"), width))
-                out.append(name.ljust(17) + _cell(r[col], 9, ".3f") + "".join(cells))
+                out.append(name.ljust(17) + _cell(r[col], 9, ".3f") + "".join(cells)
+                           + "  " + (r["fastest"] or "no clear winner"))
         out.append("  (- : the kind cannot take these keys; WRONG: result differs from the idiom's;")
         out.append("   the tuple idiom has no table row where it cannot re-prioritise up or cancel)")
         for name, r in wl.items():
@@ -276,18 +293,13 @@ def render(report: Mapping[str, Any]) -> str:
     if "concurrency" in report:
         out += concurrency.render(report["concurrency"])
     if wl:
-        out += ["", "fastest kind per workload:"]
+        out += ["", "fastest kind per workload (one rule for demo, replay and bench: the lowest median wins "
+                "only if every repeat beat every other kind's; ratios to the docs idiom):"]
         for name, r in wl.items():
+            line = f"  {name}: {r['verdict']}"
             f = r["fastest"]
-            if f is None:
-                out.append(f"  {name}: no kind ran correctly")
-                continue
-            cell = r["kinds"][f]
-            vs = [f"{cell['ratio']:.2f}x the docs idiom"]
-            if cell.get("tuple_ratio") is not None:
-                vs.insert(0, f"{cell['tuple_ratio']:.2f}x the tuple idiom")
-            out.append(f"  {name}: {f} ({'; '.join(vs)})")
-        if report.get("suggested_default"):
-            out.append(f"suggested heapkit.DEFAULT (fastest on the decrease-key workloads): "
-                       f"{report['suggested_default']}")
+            if f is not None and r["kinds"][f].get("tuple_ratio") is not None:
+                line += f" ({r['kinds'][f]['tuple_ratio']:.2f}x the tuple idiom)"
+            out.append(line)
+        out.append(f"heapkit.DEFAULT, over the decrease-key workloads: {report.get('suggestion', '-')}")
     return "\n".join(out)

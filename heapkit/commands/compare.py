@@ -2,27 +2,33 @@
 single operation, check and audit verdicts, and a recommendation.
 
 Used by ``python -m heapkit replay`` and ``python -m heapkit demo``.  Each kind
-replays the trace plainly (timed, best of ``repeat``), once with its keys
-wrapped to count ``<``, and once in checked mode (``heapkit.checked``) under
-``heapkit.audit`` with ``keep="totals"``.  The checked replay also compares
-each popped key with the key the trace recorded for that pop.  ``factories``
-maps kind names to classes (default ``heapkit.KINDS``), so tests can run a
-deliberately broken kind.
+replays the trace once untimed (to find kinds that cannot take it), then
+``repeat`` times timed in CPU time (``time.process_time``, gc paused), the kinds
+alternating their order each round; then once with its keys wrapped to count
+``<``, and once in checked mode (``heapkit.checked``) under ``heapkit.audit``
+with ``keep="totals"``.  The checked replay also compares each popped key with
+the key the trace recorded for that pop, naming the trace line.  The
+recommendation is the shared rule of :mod:`heapkit.commands.recommend`.
+``factories`` maps kind names to classes (default ``heapkit.KINDS``), so tests
+can run a deliberately broken kind.
 """
 
 from __future__ import annotations
 
 import contextlib
+import gc
 import json
 import os
+import statistics
 import sys
 import time
 from collections.abc import Callable, Mapping, Sequence
-from dataclasses import asdict, dataclass
+from dataclasses import asdict, dataclass, field
 from typing import Any
 
 import heapkit
 from heapkit import trace
+from heapkit.commands.recommend import Recommendation, recommend
 from heapkit.ledger import Ledger
 
 Factories = Mapping[str, Callable[[], Any]]
@@ -48,11 +54,14 @@ class Row:
 
     ``checked`` / ``audited``: ``"ok"``, ``"not run"`` or ``"FAILED: ..."``;
     ``unsuitable``: why the kind cannot take this trace (e.g. radix on keys that
-    are not monotone integers), empty when it can.
+    are not monotone integers), empty when it can.  ``seconds``: the median of
+    ``samples`` (CPU seconds per timed replay); ``worst_cost`` is in the kind's
+    own cost unit (``unit``).
     """
 
     kind: str
     seconds: float
+    samples: list[float] = field(default_factory=list)
     ratio: float = 1.0
     comparisons: int | None = None
     worst_op: str = ""
@@ -60,6 +69,7 @@ class Row:
     checked: str = "not run"
     audited: str = "not run"
     unsuitable: str = ""
+    unit: str = ""
 
     @property
     def healthy(self) -> bool:
@@ -118,13 +128,16 @@ def _maker(cls: Callable[[], Any]) -> Callable[[str], Any]:
     return lambda kind: cls()
 
 
-def _timed(path: str, kind: str, make: Callable[[str], Any], ops: Ops, repeat: int) -> float:
-    best = float("inf")
-    for _ in range(max(1, repeat)):
-        t0 = time.perf_counter()
+def _timed(path: str, kind: str, make: Callable[[str], Any], ops: Ops) -> float:
+    """CPU seconds of one plain replay, gc paused (as the benchmark measures)."""
+    gc.collect()
+    gc.disable()
+    try:
+        t0 = time.process_time()
         trace.replay(path, kind, make=make, ops=ops)
-        best = min(best, time.perf_counter() - t0)
-    return best
+        return time.process_time() - t0
+    finally:
+        gc.enable()
 
 
 def _comparisons(path: str, kind: str, cls: Any, ops: Ops) -> int | None:
@@ -142,16 +155,22 @@ def _first_line(exc: BaseException) -> str:
 
 def _pops_match(ops: Ops, popped: list[Any]) -> str:
     """'' if each popped key equals (neither ``<`` the other) the key the trace recorded for that pop."""
-    want = [op.get("key", _UNKNOWN) for _, op in ops if op["op"] == "pop"]
+    want = [(lineno, op.get("key", _UNKNOWN)) for lineno, op in ops if op["op"] == "pop"]
     if len(want) != len(popped):
         return f"{len(popped)} pops replayed, the trace has {len(want)}"
-    for i, (w, got) in enumerate(zip(want, popped, strict=True)):
+    for (lineno, w), got in zip(want, popped, strict=True):
         if w is _UNKNOWN:
             continue
-        w = trace.key_from_json(w)
         if w < got or got < w:
-            return f"pop #{i} returned key {got!r}; the trace recorded {w!r}"
+            return f"trace line {lineno}: pop returned key {got!r}; the trace recorded {w!r}"
     return ""
+
+
+def _failure(exc: BaseException) -> str:
+    """A failed replay in one line, naming the trace line where the replay raised."""
+    if isinstance(exc, trace.TraceError) and exc.__cause__ is not None and exc.line is not None:
+        return f"trace line {exc.line} ({exc.op}): {_first_line(exc.__cause__)}"
+    return _first_line(exc)
 
 
 def _verdicts(path: str, kind: str, cls: Any, ops: Ops, check: bool, audit: bool, row: Row) -> None:
@@ -176,8 +195,7 @@ def _verdicts(path: str, kind: str, cls: Any, ops: Ops, check: bool, audit: bool
                 if wrong:
                     raise heapkit.InvariantError(wrong)
         except Exception as exc:  # any failure of the kind is its verdict
-            cause = exc.__cause__ if isinstance(exc, trace.TraceError) and exc.__cause__ else exc
-            row.checked = f"FAILED: {_first_line(cause)}"
+            row.checked = f"FAILED: {_failure(exc)}"
             row.audited = "-" if audit else row.audited
             return
         if check:
@@ -204,6 +222,23 @@ def _unsuitable(cls: Any, exc: BaseException) -> bool:
     return bool(getattr(cls, "MONOTONE", False)) and isinstance(cause, heapkit.KeyOrderError)
 
 
+def _say(progress: bool, text: str, end: str = "\n") -> None:
+    if progress:
+        print(text, end=end, file=sys.stderr, flush=True)
+
+
+def _trial(path: str, kind: str, cls: Any, ops: Ops) -> Row:
+    """One untimed replay: a row ready for timing, or one saying why the kind cannot run."""
+    try:
+        trace.replay(path, kind, make=_maker(cls), ops=ops)
+    except Exception as exc:  # reported in the row
+        if _unsuitable(cls, exc):
+            where = str(exc).removeprefix(f"{path}:")
+            return Row(kind, float("inf"), unsuitable=f"unsuitable: trace line {where}")
+        return Row(kind, float("inf"), checked=f"FAILED: {_failure(exc)}", audited="-")
+    return Row(kind, 0.0, unit=str(getattr(cls, "COST_UNIT", "")))
+
+
 def compare(
     path: str | os.PathLike[str],
     kinds: Sequence[str],
@@ -213,53 +248,50 @@ def compare(
     repeat: int = 3,
     progress: bool = True,
     factories: Factories | None = None,
+    ops: Ops | None = None,
 ) -> list[Row]:
     """Replay ``path`` on each kind; rows sorted fastest first, ratios to the fastest.
 
-    O(kinds x (repeat + 2) x trace length); the checked replay adds O(1)
-    amortized entries checked per operation.
+    O(kinds x (repeat + 3) x trace length); the checked replay adds O(1)
+    amortized entries checked per operation.  ``ops``: the trace already read
+    with ``trace.read`` (then ``path`` only names it in messages).
     """
     path = os.fspath(path)
     table: Factories = heapkit.KINDS if factories is None else factories
-    ops: Ops = list(trace.read(path))  # parse once: the timing is of the replay, not of JSON
-    rows = []
+    if ops is None:
+        ops = list(trace.read(path))  # parse once: the timing is of the replay, not of JSON
+    rows = {}
     for i, kind in enumerate(kinds, 1):
-        cls = table[kind]
+        _say(progress, f"[{i}/{len(kinds)}] {kind}: trial replay ...", end="")
+        rows[kind] = _trial(path, kind, table[kind], ops)
+        _say(progress, f" {rows[kind].unsuitable or _short(rows[kind].checked).replace('not run', 'ok')}"[:60])
+    timed = [k for k, r in rows.items() if not r.unsuitable and r.seconds == 0.0] if ops else []
+    for rep in range(repeat):
+        _say(progress, f"timing round {rep + 1}/{repeat} ({len(timed)} kinds, order alternating)")
+        for kind in timed if rep % 2 == 0 else timed[::-1]:
+            rows[kind].samples.append(_timed(path, kind, _maker(table[kind]), ops))
+    for i, kind in enumerate(timed, 1):
+        row, cls = rows[kind], table[kind]
+        row.seconds = statistics.median(row.samples) if row.samples else 0.0
         started = time.perf_counter()
-        if progress:
-            print(f"[{i}/{len(kinds)}] {kind}: timing ...", end="", file=sys.stderr, flush=True)
-        try:
-            row = Row(kind, _timed(path, kind, _maker(cls), ops, repeat))
-        except Exception as exc:  # reported in the row
-            if _unsuitable(cls, exc):
-                where = str(exc).removeprefix(f"{path}:")
-                rows.append(Row(kind, float("inf"), unsuitable=f"unsuitable: trace line {where}"))
-            else:
-                rows.append(Row(kind, float("inf"), checked=f"FAILED: {_first_line(exc)}", audited="-"))
-            if progress:
-                print(f" {rows[-1].unsuitable or 'failed'}"[:60], file=sys.stderr, flush=True)
-            continue
-        if progress:
-            print(" comparisons ...", end="", file=sys.stderr, flush=True)
+        _say(progress, f"[{i}/{len(timed)}] {kind}: comparisons ...", end="")
         row.comparisons = _comparisons(path, kind, cls, ops)
         if check or audit:
-            if progress:
-                print(" checked/audited replay ...", end="", file=sys.stderr, flush=True)
+            _say(progress, " checked/audited replay ...", end="")
             _verdicts(path, kind, cls, ops, check, audit, row)
-        if progress:
-            print(f" {time.perf_counter() - started:.1f} s", file=sys.stderr, flush=True)
-        rows.append(row)
-    rows.sort(key=lambda r: r.seconds)
-    fastest = rows[0].seconds if rows else 1.0
-    for r in rows:
+        _say(progress, f" {time.perf_counter() - started:.1f} s")
+    out = sorted(rows.values(), key=lambda r: r.seconds)
+    fastest = out[0].seconds if out else 1.0
+    for r in out:
         r.ratio = r.seconds / fastest if fastest and r.seconds != float("inf") else float("inf")
-    return rows
+    return out
 
 
-def recommend(rows: Sequence[Row]) -> Row | None:
-    """The fastest kind whose checks and audit passed."""
-    healthy = [r for r in rows if r.healthy]
-    return min(healthy, key=lambda r: r.seconds) if healthy else None
+def verdict(rows: Sequence[Row]) -> Recommendation:
+    """The shared recommendation rule over the timings of the kinds whose checks and audit passed."""
+    if not any(r.healthy for r in rows):
+        return Recommendation(None, "no recommendation: no kind passed its checks")
+    return recommend({r.kind: r.samples for r in rows if r.healthy}, lambda s: f"{s * 1000:.3g} ms")
 
 
 def exit_code(rows: Sequence[Row]) -> int:
@@ -274,37 +306,54 @@ def _short(verdict: str) -> str:
     return "FAILED" if verdict.startswith("FAILED") else verdict
 
 
+def _spread(r: Row) -> str:
+    if len(r.samples) < 2 or not r.seconds:
+        return "-"
+    return f"{(max(r.samples) - min(r.samples)) / r.seconds * 100:.0f}%"
+
+
 def render(rows: Sequence[Row]) -> str:
-    """A plain-text table, one kind a line, then the full text of every failure."""
-    head = f"{'kind':<14}{'ms':>9}{'x fastest':>11}{'compares':>11}  {'worst op (cost)':<24}{'check':<9}audit"
+    """A plain-text table, one kind a line, then the full text of every failure.
+
+    ``ms``: the median CPU time of the timed replays; ``spread``: their range, in
+    percent of the median; ``worst op``: the costliest single operation the audit
+    saw, in the kind's own cost unit (listed under the table: not comparable
+    across kinds).
+    """
+    head = (f"{'kind':<14}{'ms':>9}{'spread':>8}{'x fastest':>11}{'compares':>11}  "
+            f"{'worst op (own unit*)':<24}{'check':<9}audit")
     lines = [head, "-" * len(head)]
-    notes = []
+    notes, units = [], []
     for r in rows:
-        worst = f"{r.worst_op} ({r.worst_cost:g})" if r.worst_cost is not None else "-"
+        worst = f"{r.worst_op} {r.worst_cost:g}" if r.worst_cost is not None else "-"
         comps = "n/a" if r.comparisons is None else str(r.comparisons)
         if r.unsuitable:
-            lines.append(f"{r.kind:<14}{'-':>9}{'-':>11}{'-':>11}  {r.unsuitable}")
+            lines.append(f"{r.kind:<14}{'-':>9}{'-':>8}{'-':>11}{'-':>11}  {r.unsuitable}")
             continue
         if r.seconds == float("inf"):
-            lines.append(f"{r.kind:<14}{'-':>9}{'-':>11}{'-':>11}  {'-':<24}{_short(r.checked):<9}{r.audited}")
+            lines.append(f"{r.kind:<14}{'-':>9}{'-':>8}{'-':>11}{'-':>11}  {'-':<24}{_short(r.checked):<9}{r.audited}")
         else:
             lines.append(
-                f"{r.kind:<14}{r.seconds * 1000:>9.1f}{r.ratio:>11.2f}{comps:>11}  {worst:<24}"
+                f"{r.kind:<14}{r.seconds * 1000:>9.1f}{_spread(r):>8}{r.ratio:>11.2f}{comps:>11}  {worst:<24}"
                 f"{_short(r.checked):<9}{_short(r.audited)}"
             )
-        for what, verdict in (("check", r.checked), ("audit", r.audited)):
-            if verdict.startswith("FAILED"):
-                notes.append(f"  {r.kind} {what} {verdict}")
+            if r.worst_cost is not None and r.unit:
+                units.append(f"  {r.kind}: {r.unit}")
+        for what, verdict_ in (("check", r.checked), ("audit", r.audited)):
+            if verdict_.startswith("FAILED"):
+                notes.append(f"  {r.kind} {what} {verdict_}")
+    if units:
+        lines.extend(["", "* cost units (each kind counts its own work; compare a kind with its bound, "
+                      "not with another kind):", *units])
     if notes:
         lines.extend(["", "failures:", *notes])
-    best = recommend(rows)
-    lines.append("")
-    lines.append(f"recommended: {best.kind}" if best else "recommended: none (no kind passed its checks)")
+    lines.extend(["", verdict(rows).line])
     return "\n".join(lines)
 
 
 def as_json(rows: Sequence[Row]) -> str:
-    best = recommend(rows)
+    """The rows and the recommendation as JSON text."""
+    v = verdict(rows)
     data = [{**asdict(r), "seconds": None if r.seconds == float("inf") else r.seconds,
              "ratio": None if r.ratio == float("inf") else r.ratio} for r in rows]
-    return json.dumps({"rows": data, "recommended": best.kind if best else None}, indent=2)
+    return json.dumps({"rows": data, "recommended": v.best, "recommendation": v.line}, indent=2)

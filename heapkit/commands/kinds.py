@@ -5,10 +5,11 @@ from __future__ import annotations
 import argparse
 
 import heapkit
+from heapkit.commands.options import plain
 
 
 def add_parser(sub: argparse._SubParsersAction) -> None:  # type: ignore[type-arg]
-    p = sub.add_parser("kinds", help="list the heap kinds and their bounds", description=__doc__)
+    p = sub.add_parser("kinds", help="list the heap kinds and their bounds", description=plain(__doc__))
     p.set_defaults(run=run)
 
 
