@@ -22,6 +22,7 @@ from heapkit.kinds import (
     PairingHeap,
     RadixHeap,
     RankPairingHeap,
+    WeakHeap,
     new,
 )
 from heapkit.protocol import Handle, Heap, Shape
@@ -49,6 +50,7 @@ __all__ = [
     "RadixHeap",
     "RankPairingHeap",
     "Shape",
+    "WeakHeap",
     "audit",
     "check",
     "checked",

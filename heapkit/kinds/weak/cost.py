@@ -1,0 +1,61 @@
+"""What the auditor asks of the weak heap: cost unit, potential and bounds.
+
+Cost unit: key comparisons, read from the audit's counting layer (every
+ordering object of an audited heap counts its ``<``); outside an audit the
+count does not move and the actual cost reads 0.
+
+Potential: ``Phi = 2 * (pending tail positions) + (pending marks)``, ``c = 1``.
+A settle of ``k`` tail positions costs at most ``2k + 2L`` comparisons (``L =
+bit_length(n)``, derivation in ``heap.py``) and frees ``2k`` of potential, so
+its amortized cost is at most ``2L``.  Bounds at size n, amortized:
+push 2 (no comparison, Phi + 2); pop ``3L + 1`` (settle ``2L``, then one join per
+level); decrease_key ``L + 1`` (the upward check, then one per d-ancestor);
+change_key and remove ``3L + 2``; meld ``2n`` for the combined size (the other
+heap's entries join the tail: Phi grows by at most 2 per entry, no comparison).
+"""
+
+from __future__ import annotations
+
+from typing import Any
+
+__all__ = ["COST_UNIT", "PHI_C", "POTENTIAL", "actual", "bound", "phi", "probe"]
+
+COST_UNIT = "key comparisons"
+POTENTIAL = "2 per pending tail position + 1 per pending mark"
+PHI_C = 1.0
+
+
+def _count() -> int:
+    from heapkit import audit  # the counting layer; imported late (audit imports the kinds' base)
+
+    return audit._COUNT
+
+
+def phi(heap: Any) -> float:
+    """The potential now: O(1) (marks are empty except after a raising comparison)."""
+    tail = max(0, len(heap._a) - max(heap._s, 1))
+    return float(2 * tail + len(heap._up))
+
+
+def probe(heap: Any, op: str, handle: Any) -> int:
+    """Before ``op``: the audit's comparison count."""
+    return _count()
+
+
+def actual(heap: Any, op: str, before: int, handle: Any) -> int:
+    """After ``op``: the comparisons it made."""
+    return _count() - before
+
+
+def bound(op: str, n: int) -> float:
+    """The amortized bound of ``op`` at size ``n`` (see the module docstring)."""
+    big_l = max(n, 1).bit_length()
+    if op == "push":
+        return 2.0
+    if op == "pop":
+        return float(3 * big_l + 1)
+    if op == "decrease_key":
+        return float(big_l + 1)
+    if op == "meld":
+        return float(2 * n)
+    return float(3 * big_l + 2)
