@@ -1,8 +1,8 @@
 """What the auditor asks of the weak heap: cost unit, potential and bounds.
 
-Cost unit: key comparisons, read from the audit's counting layer (every
-ordering object of an audited heap counts its ``<``); outside an audit the
-count does not move and the actual cost reads 0.
+Cost unit: key comparisons the operation makes, counted by the heap itself
+(``heap._work``, one addition per sift or settle), so the comparisons of a
+check or of any other layer do not count.
 
 Potential: ``Phi = 2 * (pending tail positions) + (pending marks)``, ``c = 1``.
 A settle of ``k`` tail positions costs at most ``2k + 2L`` comparisons (``L =
@@ -25,12 +25,6 @@ POTENTIAL = "2 per pending tail position + 1 per pending mark"
 PHI_C = 1.0
 
 
-def _count() -> int:
-    from heapkit import audit  # the counting layer; imported late (audit imports the kinds' base)
-
-    return audit._COUNT
-
-
 def phi(heap: Any) -> float:
     """The potential now: O(1) (marks are empty except after a raising comparison)."""
     tail = max(0, len(heap._a) - max(heap._s, 1))
@@ -38,13 +32,13 @@ def phi(heap: Any) -> float:
 
 
 def probe(heap: Any, op: str, handle: Any) -> int:
-    """Before ``op``: the audit's comparison count."""
-    return _count()
+    """Before ``op``: the heap's comparison count."""
+    return int(heap._work)
 
 
 def actual(heap: Any, op: str, before: int, handle: Any) -> int:
     """After ``op``: the comparisons it made."""
-    return _count() - before
+    return int(heap._work) - before
 
 
 def bound(op: str, n: int) -> float:

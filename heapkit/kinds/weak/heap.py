@@ -98,7 +98,7 @@ class WeakHeap(HeapBase[K, V], Generic[K, V]):
     [(1, 'i'), (2, 'b'), (5, 'e')]
     """
 
-    __slots__ = ("_a", "_r", "_s", "_up")
+    __slots__ = ("_a", "_r", "_s", "_up", "_work")
 
     KIND: ClassVar[str] = "weak"
     BOUNDS: ClassVar[str] = (
@@ -114,6 +114,7 @@ class WeakHeap(HeapBase[K, V], Generic[K, V]):
     _r: bytearray
     _s: int
     _up: list[int]
+    _work: int  # key comparisons made so far: the audit's cost unit (cost.py)
 
     def __init__(self, pairs: Iterable[tuple[K, V]] = (), *, stable: bool = False) -> None:
         self._setup(stable)
@@ -121,6 +122,7 @@ class WeakHeap(HeapBase[K, V], Generic[K, V]):
         self._r = bytearray()
         self._s = 0
         self._up = []
+        self._work = 0
         self._finish_init(pairs)
 
     def _family(self) -> type:
@@ -160,6 +162,7 @@ class WeakHeap(HeapBase[K, V], Generic[K, V]):
             self._s = n
             raise
         self._s = n
+        self._work += max(0, n - max(s, 1))
         while up:
             j = -up[0]
             i = j
@@ -168,6 +171,7 @@ class WeakHeap(HeapBase[K, V], Generic[K, V]):
             i >>= 1
             x = a[j]
             y = a[i]
+            self._work += 1
             if x._k < y._k:
                 a[i] = x
                 x._i = i
@@ -191,6 +195,7 @@ class WeakHeap(HeapBase[K, V], Generic[K, V]):
             while (i & 1) == r[i >> 1]:
                 i >>= 1
             i >>= 1
+            self._work += 1
             if k < a[i]._k:
                 chain.append(i)
                 j = i
@@ -229,6 +234,7 @@ class WeakHeap(HeapBase[K, V], Generic[K, V]):
             j = c
             c = 2 * j + r[j]
         swaps: list[int] = []
+        self._work += j.bit_length() - t.bit_length()
         while j != t:
             y = a[j]
             if y._k < k:
@@ -341,6 +347,7 @@ class WeakHeap(HeapBase[K, V], Generic[K, V]):
             raise nan_error("decrease_key", key)
         w = self._wrap
         k = key if w is None else w(key, x._k)
+        self._work += 1
         if x._k < k:
             raise upward_error(x, key)
         chain = self._climb(x._i, k)
@@ -363,6 +370,7 @@ class WeakHeap(HeapBase[K, V], Generic[K, V]):
             raise nan_error("change_key", key)
         w = self._wrap
         k = key if w is None else w(key, x._k)
+        self._work += 1
         if x._k < k:
             if self._s < len(self._a) or self._up:
                 self._settle()
@@ -399,6 +407,7 @@ class WeakHeap(HeapBase[K, V], Generic[K, V]):
             last = a[m]
             lk = last._k
             i = d_ancestor(self._r, t) if t else 0
+            self._work += t > 0
             if t and lk < a[i]._k:
                 chain = [t, *self._climb(i, lk)]
                 self._drop_last()
