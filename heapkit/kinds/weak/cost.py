@@ -16,7 +16,12 @@ heap's entries join the tail: Phi grows by at most 2 per entry, no comparison).
 
 from __future__ import annotations
 
-from typing import Any
+from typing import TYPE_CHECKING, Any
+
+if TYPE_CHECKING:
+    from heapkit.kinds.weak.heap import WeakHeap
+
+    Weak = WeakHeap[Any, Any]
 
 __all__ = ["COST_UNIT", "PHI_C", "POTENTIAL", "actual", "bound", "phi", "probe"]
 
@@ -25,18 +30,18 @@ POTENTIAL = "2 per pending tail position + 1 per pending mark"
 PHI_C = 1.0
 
 
-def phi(heap: Any) -> float:
+def phi(heap: Weak) -> float:
     """The potential now: O(1) (marks are empty except after a raising comparison)."""
     tail = max(0, len(heap._a) - max(heap._s, 1))
     return float(2 * tail + len(heap._up))
 
 
-def probe(heap: Any, op: str, handle: Any) -> int:
+def probe(heap: Weak, op: str, handle: Any) -> int:
     """Before ``op``: the heap's comparison count."""
     return int(heap._work)
 
 
-def actual(heap: Any, op: str, before: int, handle: Any) -> int:
+def actual(heap: Weak, op: str, before: int, handle: Any) -> int:
     """After ``op``: the comparisons it made."""
     return int(heap._work) - before
 

@@ -10,7 +10,12 @@ subtree" (Dutton 1993; recalled from memory).
 from __future__ import annotations
 
 from collections.abc import Iterator
-from typing import Any
+from typing import TYPE_CHECKING, Any
+
+if TYPE_CHECKING:
+    from heapkit.kinds.weak.heap import WeakHeap
+
+    Weak = WeakHeap[Any, Any]
 
 __all__ = ["RULES", "dot_edges", "path", "survey"]
 
@@ -25,14 +30,14 @@ RULES: dict[str, str] = {
 }
 
 
-def _da(r: Any, j: int) -> int:
+def _da(r: bytearray, j: int) -> int:
     """Distinguished ancestor of ``j >= 1`` (tolerates a corrupt root bit: stops at 0)."""
     while j > 1 and (j & 1) == r[j >> 1]:
         j >>= 1
     return j >> 1
 
 
-def path(heap: Any, i: int) -> list[str]:
+def path(heap: Weak, i: int) -> list[str]:
     """Steps from the root to position ``i``: ``left``/``right`` by the reverse bits."""
     r = heap._r
     steps: list[str] = []
@@ -46,12 +51,12 @@ def path(heap: Any, i: int) -> list[str]:
     return steps
 
 
-def _pending(heap: Any) -> set[int]:
+def _pending(heap: Weak) -> set[int]:
     n = len(heap._a)
     return set(range(max(heap._s, 1), n)) | {-q for q in heap._up}
 
 
-def survey(heap: Any, report: Any) -> dict[str, Any]:
+def survey(heap: Weak, report: Any) -> dict[str, Any]:
     """Check every rule in O(n); return the figures of :class:`heapkit.Shape`."""
     a = heap._a
     r = heap._r
@@ -96,7 +101,7 @@ def survey(heap: Any, report: Any) -> dict[str, Any]:
     }
 
 
-def dot_edges(heap: Any) -> Iterator[tuple[Any, Any, str]]:
+def dot_edges(heap: Weak) -> Iterator[tuple[Any, Any, str]]:
     """``(entry at the distinguished ancestor or None, entry, "[i]")`` in array order:
     the heap-ordered multiway tree a weak heap stands for (pending entries marked)."""
     a = heap._a
