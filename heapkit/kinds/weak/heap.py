@@ -51,7 +51,8 @@ from collections.abc import Callable, Iterable, Iterator
 from heapq import heappop, heappush
 from typing import Any, ClassVar, Generic, TypeVar
 
-from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, upward_error
+from heapkit._core import HeapBase, empty_error, nan_error, upward_error
+from heapkit.kinds.dary import _Slot  # the array-position handle, shared with the d-ary heap
 from heapkit.kinds.weak import cost as _cost
 from heapkit.kinds.weak import rules as _rules
 from heapkit.protocol import Handle
@@ -62,19 +63,6 @@ K = TypeVar("K")
 V = TypeVar("V")
 
 _new = object.__new__
-
-
-class _Slot(HandleBase[K, V]):
-    """Handle of a weak-heap entry; ``_i`` is its position in the array."""
-
-    __slots__ = ("_i",)
-
-    def __init__(self, key: K, k: Any, value: V, tok: Any) -> None:
-        self._key = key
-        self._k = k
-        self.value = value
-        self._tok = tok
-        self._i = -1
 
 
 def d_ancestor(r: bytearray, j: int) -> int:
@@ -109,6 +97,7 @@ class WeakHeap(HeapBase[K, V], Generic[K, V]):
     COST_UNIT: ClassVar[str] = _cost.COST_UNIT
     POTENTIAL: ClassVar[str] = _cost.POTENTIAL
     PHI_C: ClassVar[float] = _cost.PHI_C
+    _NODE: ClassVar[type[Any]] = _Slot
 
     _a: list[_Slot[K, V]]
     _r: bytearray
@@ -367,12 +356,7 @@ class WeakHeap(HeapBase[K, V], Generic[K, V]):
         True
         """
         x: Any = handle
-        if type(x) is not _Slot or x._tok is not self._tok:
-            self._claim(x, "decrease_key")
-        if key != key:
-            raise nan_error("decrease_key", key)
-        w = self._wrap
-        k = key if w is None else w(key, x._k)
+        k = self._new_order(x, key, "decrease_key")
         self._work += 1
         if x._k < k:
             raise upward_error(x, key)
@@ -390,12 +374,7 @@ class WeakHeap(HeapBase[K, V], Generic[K, V]):
         (4, 'd')
         """
         x: Any = handle
-        if type(x) is not _Slot or x._tok is not self._tok:
-            self._claim(x, "change_key")
-        if key != key:
-            raise nan_error("change_key", key)
-        w = self._wrap
-        k = key if w is None else w(key, x._k)
+        k = self._new_order(x, key, "change_key")
         self._work += 1
         if x._k < k:
             if self._s < len(self._a) or self._up:
