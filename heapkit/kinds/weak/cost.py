@@ -4,10 +4,12 @@ Cost unit: key comparisons the operation makes, counted by the heap itself
 (``heap._work``, one addition per sift or settle), so the comparisons of a
 check or of any other layer do not count.
 
-Potential: ``Phi = 2 * (pending tail positions) + (pending marks)``, ``c = 1``.
+Potential: ``Phi = 2 * (pending tail positions + pending marks)``, ``c = 1``.
 A settle of ``k`` tail positions costs at most ``2k + 2L`` comparisons (``L =
 bit_length(n)``, derivation in ``heap.py``) and frees ``2k`` of potential, so
-its amortized cost is at most ``2L``.  Bounds at size n, amortized:
+its amortized cost is at most ``2L``.  (Marks left by a raising comparison are
+a tail cut short; each keeps its 2 units, and their ancestors may cost up to ``2L``
+more once: the one case the bounds below do not cover.)  Bounds at size n, amortized:
 push 2 (no comparison, Phi + 2); pop ``3L + 1`` (settle ``2L``, then one join per
 level); decrease_key ``L + 1`` (the upward check, then one per d-ancestor);
 change_key and remove ``3L + 2``; meld ``2n`` for the combined size (the other
@@ -26,14 +28,14 @@ if TYPE_CHECKING:
 __all__ = ["COST_UNIT", "PHI_C", "POTENTIAL", "actual", "bound", "phi", "probe"]
 
 COST_UNIT = "key comparisons"
-POTENTIAL = "2 per pending tail position + 1 per pending mark"
+POTENTIAL = "2 per pending position (tail or mark)"
 PHI_C = 1.0
 
 
 def phi(heap: Weak) -> float:
     """The potential now: O(1) (marks are empty except after a raising comparison)."""
     tail = max(0, len(heap._a) - max(heap._s, 1))
-    return float(2 * tail + len(heap._up))
+    return float(2 * (tail + len(heap._up)))
 
 
 def probe(heap: Weak, op: str, handle: Any) -> int:
