@@ -79,6 +79,9 @@ def d_ancestor(r: bytearray, j: int) -> int:
 class WeakHeap(HeapBase[K, V], Generic[K, V]):
     """Weak heap in an array (Dutton 1993) with handles; the fewest key comparisons.
 
+    ``meld`` appends the other heap's entries as pending positions: O(m) moves, no
+    comparison; the next pop, peek, upward change_key or remove settles them.
+
     >>> h = WeakHeap([(5, 'e'), (2, 'b')])
     >>> x = h.push(9, 'i')
     >>> h.decrease_key(x, 1)
