@@ -25,6 +25,7 @@ from heapkit.kinds import (
     PairingHeap,
     RadixHeap,
     RankPairingHeap,
+    WeakHeap,
     new,
 )
 from heapkit.protocol import Handle, Heap, Shape
@@ -56,6 +57,7 @@ __all__ = [
     "RadixHeap",
     "RankPairingHeap",
     "Shape",
+    "WeakHeap",
     "asynchronous",
     "audit",
     "blocking",

@@ -138,6 +138,7 @@ def test_labels_agree_with_check(name: str) -> None:
     labels, edges = _parse(to_dot(h, limit=10_000))
     shape = heapkit.check(h)
     out = {n: sum(1 for p, _ in edges if p == n) for n in labels}
+    index = {n: i for i, n in enumerate(labels)}
     extras = {n: lab.split("\\n", 1)[1] for n, lab in labels.items()}
     if name in ("fibonacci", "binomial", "pairing"):
         degree = {n: int(re.match(r"degree (\d+)", e).group(1)) for n, e in extras.items()}  # type: ignore[union-attr]
@@ -160,6 +161,13 @@ def test_labels_agree_with_check(name: str) -> None:
             stale = sum(e.endswith(", stale") for e in extras.values())
             assert stale == shape.details["stale"] and stale > 0
             assert len(labels) == shape.details["entries"]
+    elif name == "weak":                                        # "[i]": the array position
+        slots = [int(re.match(r"\[(\d+)\]", e).group(1)) for e in extras.values()]  # type: ignore[union-attr]
+        assert slots == list(range(len(labels)))
+        assert max(out.values()) == shape.max_degree               # children of a d-ancestor
+        # Each edge runs from a position's distinguished ancestor, which is above it
+        # (smaller index) in the array (Dutton 1993, recalled from memory).
+        assert all(slots[index[p]] < slots[index[c]] for p, c in edges)
     else:
         pytest.skip(f"no label facts for {name} yet: add its extra label's meaning here")
 

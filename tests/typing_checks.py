@@ -6,7 +6,7 @@ Each ``# type: ignore[code]`` marks an error mypy must report; with
 
 from __future__ import annotations
 
-from heapkit import Handle, Heap, PairingHeap
+from heapkit import Handle, Heap, PairingHeap, WeakHeap
 
 
 def protocol_holds() -> None:
@@ -41,3 +41,10 @@ def pop_gives_key_and_value_types() -> None:
     k, v = h.pop()
     wrong: str = k  # type: ignore[assignment]
     print(wrong, v)
+
+
+def weak_heap_satisfies_the_protocol() -> None:
+    h: Heap[int, str] = WeakHeap()
+    handle: Handle[int, str] = h.push(3, "x")
+    h.decrease_key(handle, 1)
+    h.push("x", "y")  # type: ignore[arg-type]

@@ -34,6 +34,7 @@ __all__ = [
     "Row",
     "bytes_per_entry",
     "comparisons",
+    "dijkstra_comparisons",
     "growth",
     "log2_factorial",
     "modes",
@@ -196,6 +197,79 @@ def comparisons(kinds: Mapping[str, type], n: int, seed: int = 1) -> dict[str, i
             heap.push(k, i)
         while heap:
             heap.pop()
+        out[name] = Counted.count
+    return out
+
+
+def _counted_dijkstra(heap: Any, adj: Any, src: int) -> list[float]:
+    """Dijkstra with handles (push once, then decrease_key) on :class:`Counted` keys."""
+    dist = [math.inf] * len(adj)
+    handles: list[Any] = [None] * len(adj)
+    dist[src] = 0.0
+    handles[src] = heap.push(Counted(0.0), src)
+    while heap:
+        k, u = heap.pop()
+        for v, w in adj[u]:
+            nd = k.v + w
+            if nd < dist[v]:
+                dist[v] = nd
+                h = handles[v]
+                if h is None:
+                    handles[v] = heap.push(Counted(nd), v)
+                else:
+                    heap.decrease_key(h, Counted(nd))
+    return dist
+
+
+def _counted_idiom_dijkstra(adj: Any, src: int) -> list[float]:
+    """The docs' heapq idiom of :func:`heapkit.bench.idiom.dijkstra` on :class:`Counted`
+    priorities (an entry ``[priority, count, vertex]`` compares its priority with one ``<``
+    since two Counted objects are never equal)."""
+    dist = [math.inf] * len(adj)
+    counter = itertools.count()
+    pq: list[list[Any]] = []
+    finder: dict[int, list[Any]] = {}
+    dist[src] = 0.0
+    finder[src] = entry = [Counted(0.0), next(counter), src]
+    heapq.heappush(pq, entry)
+    while pq:
+        k, _, u = heapq.heappop(pq)
+        if u is idiom.REMOVED:
+            continue
+        del finder[u]
+        for v, w in adj[u]:
+            nd = k.v + w
+            if nd < dist[v]:
+                dist[v] = nd
+                old = finder.pop(v, None)
+                if old is not None:
+                    old[-1] = idiom.REMOVED
+                finder[v] = entry = [Counted(nd), next(counter), v]
+                heapq.heappush(pq, entry)
+    return dist
+
+
+def dijkstra_comparisons(kinds: Mapping[str, type], adj: Any, src: int = 0) -> dict[str, int]:
+    """Key comparisons of Dijkstra's algorithm from ``src`` per kind (push, pop,
+    decrease_key) and for the ``heapq`` idiom (``"heapq"``: a new entry per
+    improvement, stale entries skipped), all reaching the same distances.
+
+    >>> from heapkit import BinaryHeap
+    >>> c = dijkstra_comparisons({"binary": BinaryHeap}, [[(1, 2.0), (2, 5.0)], [(2, 1.0)], []])
+    >>> c["binary"] > 0 and c["heapq"] > 0
+    True
+    """
+    out: dict[str, int] = {}
+    Counted.count = 0
+    want = _counted_idiom_dijkstra(adj, src)
+    out["heapq"] = Counted.count
+    for name, cls in kinds.items():
+        if getattr(cls, "MONOTONE", False):
+            continue  # int keys filed by their bits; no <
+        Counted.count = 0
+        got = _counted_dijkstra(cls(), adj, src)
+        if got != want:
+            raise ValueError(f"dijkstra_comparisons: {name} found other distances than heapq")
         out[name] = Counted.count
     return out
 

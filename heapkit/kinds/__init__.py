@@ -14,6 +14,7 @@ from heapkit.kinds.lazy import LazyHeap
 from heapkit.kinds.pairing import PairingHeap
 from heapkit.kinds.radix import RadixHeap
 from heapkit.kinds.rank_pairing import RankPairingHeap
+from heapkit.kinds.weak import WeakHeap
 
 __all__ = [
     "DEFAULT",
@@ -27,6 +28,7 @@ __all__ = [
     "PairingHeap",
     "RadixHeap",
     "RankPairingHeap",
+    "WeakHeap",
     "new",
 ]
 
@@ -43,6 +45,7 @@ KINDS: Mapping[str, type] = MappingProxyType(
             PairingHeap,
             RadixHeap,
             RankPairingHeap,
+            WeakHeap,
         )
     }
 )
