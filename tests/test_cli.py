@@ -201,7 +201,8 @@ def test_one_recommendation_rule_with_spread() -> None:
     assert render(close).splitlines()[-1].startswith("no clear winner: a 11 ms")
     # bench applies the same rule to its ratios
     cells = {"a": {"ratios": [1.0, 1.1, 1.4], "ok": True}, "b": {"ratios": [1.3, 1.6, 1.7], "ok": True}}
-    assert suggestion({"dijkstra-grid": {"kinds": cells}}).line.startswith("no clear winner: a 1.10x (range 1.00x to 1.40x)")
+    line = suggestion({"dijkstra-grid": {"kinds": cells}}).line
+    assert line.startswith("no clear winner: a 1.10x (range 1.00x to 1.40x)")
 
 
 def test_no_recommendation_on_an_empty_trace(tmp_path: Path) -> None:
