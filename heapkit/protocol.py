@@ -20,50 +20,100 @@ K_co = TypeVar("K_co", covariant=True)
 
 @runtime_checkable
 class Handle(Protocol[K_co, V]):
-    """Names one entry of a heap: ``key`` (read-only), ``value`` (read-write), ``alive``."""
+    """Names one entry of a heap, from ``push`` until the entry is popped, removed or cleared.
+
+    Every kind's ``push`` and ``peek`` return this type (the node classes behind it
+    are private).  Pass it back to ``decrease_key``, ``change_key`` or ``remove``.
+    """
 
     @property
-    def key(self) -> K_co: ...
+    def key(self) -> K_co:
+        """The entry's key; read-only (change it with ``decrease_key``/``change_key``)."""
+        ...
 
     @property
-    def value(self) -> V: ...
+    def value(self) -> V:
+        """The payload carried with the key; never compared."""
+        ...
 
     @value.setter
-    def value(self, value: V) -> None: ...
+    def value(self, value: V) -> None:
+        """Replace the payload; the entry keeps its place (order depends on the key alone)."""
+        ...
 
     @property
-    def alive(self) -> bool: ...
+    def alive(self) -> bool:
+        """True while the entry is in a heap; False once popped, removed or cleared."""
+        ...
 
 
 @runtime_checkable
 class Heap(Protocol[K, V]):
-    """An addressable priority queue; see ``design/api.md`` for the full contract."""
+    """An addressable priority queue: the protocol every kind satisfies.
 
-    def push(self, key: K, value: V) -> Handle[K, V]: ...
+    The README's "The protocol" section gives the contract and the errors each
+    member raises; ``heapkit.KINDS`` lists the classes.
+    """
 
-    def extend(self, pairs: Iterable[tuple[K, V]]) -> list[Handle[K, V]]: ...
+    def push(self, key: K, value: V) -> Handle[K, V]:
+        """Insert ``(key, value)`` and return its handle.  KeyOrderError for a NaN key."""
+        ...
 
-    def peek(self) -> Handle[K, V]: ...
+    def extend(self, pairs: Iterable[tuple[K, V]]) -> list[Handle[K, V]]:
+        """Insert every ``(key, value)`` pair, all or nothing; the handles in order."""
+        ...
 
-    def pop(self) -> tuple[K, V]: ...
+    def peek(self) -> Handle[K, V]:
+        """The handle of an entry with the smallest key.  EmptyHeapError when empty."""
+        ...
 
-    def decrease_key(self, handle: Handle[K, V], key: K) -> None: ...
+    def pop(self) -> tuple[K, V]:
+        """Remove and return ``(key, value)`` of the entry ``peek`` names.  EmptyHeapError when empty."""
+        ...
 
-    def change_key(self, handle: Handle[K, V], key: K) -> None: ...
+    def decrease_key(self, handle: Handle[K, V], key: K) -> None:
+        """Give the entry a key that is not larger.
 
-    def remove(self, handle: Handle[K, V]) -> tuple[K, V]: ...
+        KeyOrderError if the current key < ``key`` (or ``key`` is NaN);
+        InvalidHandleError for a dead handle or one of another heap.
+        """
+        ...
 
-    def meld(self, other: Heap[K, V]) -> None: ...
+    def change_key(self, handle: Handle[K, V], key: K) -> None:
+        """Give the entry any key.  InvalidHandleError for a dead or foreign handle."""
+        ...
 
-    def clear(self) -> None: ...
+    def remove(self, handle: Handle[K, V]) -> tuple[K, V]:
+        """Delete the entry and return its ``(key, value)``.  InvalidHandleError for a dead or foreign handle."""
+        ...
 
-    def __len__(self) -> int: ...
+    def meld(self, other: Heap[K, V]) -> None:
+        """Move every entry of ``other`` (same kind, same options) into this heap; ``other`` is left empty.
 
-    def __bool__(self) -> bool: ...
+        Handles of ``other`` stay valid and now belong to this heap.  TypeError for
+        another kind or other options; ValueError for ``meld(self)``.
+        """
+        ...
 
-    def __iter__(self) -> Iterator[Handle[K, V]]: ...
+    def clear(self) -> None:
+        """Remove every entry; every handle becomes dead."""
+        ...
 
-    def __contains__(self, handle: object) -> bool: ...
+    def __len__(self) -> int:
+        """Number of entries."""
+        ...
+
+    def __bool__(self) -> bool:
+        """True when the heap holds an entry."""
+        ...
+
+    def __iter__(self) -> Iterator[Handle[K, V]]:
+        """Every live handle, no order promised.  RuntimeError if the heap changes meanwhile."""
+        ...
+
+    def __contains__(self, handle: object) -> bool:
+        """True if ``handle`` is live in this heap."""
+        ...
 
 
 @dataclass(frozen=True)
