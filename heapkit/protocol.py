@@ -8,7 +8,6 @@ as the entry is in a heap (across melds too).
 from __future__ import annotations
 
 from collections.abc import Iterable, Iterator, Mapping
-from dataclasses import dataclass, field
 from typing import Protocol, TypeVar, runtime_checkable
 
 __all__ = ["Handle", "Heap", "Shape"]
@@ -116,19 +115,60 @@ class Heap(Protocol[K, V]):
         ...
 
 
-@dataclass(frozen=True)
 class Shape:
-    """What ``heapkit.check`` found: the heap's figures once every rule held.
+    """What ``heapkit.check`` found: the heap's figures once every rule held (read-only).
 
     ``marked`` is None where the kind has no marks, ``potential`` None where it
-    defines none; ``details`` holds kind-specific figures.
+    defines none; ``details`` holds kind-specific figures.  Written by hand rather
+    than as a frozen dataclass: ``dataclasses`` imports ``inspect`` and ``ast``,
+    a third of ``import heapkit``'s time.
+
+    >>> Shape("pairing", 1, 1, 1, 0)
+    Shape(kind='pairing', size=1, roots=1, height=1, max_degree=0, marked=None, potential=None, details={})
     """
+
+    __slots__ = ("details", "height", "kind", "marked", "max_degree", "potential", "roots", "size")
+    _FIELDS = ("kind", "size", "roots", "height", "max_degree", "marked", "potential", "details")
 
     kind: str
     size: int
     roots: int
     height: int
     max_degree: int
-    marked: int | None = None
-    potential: float | None = None
-    details: Mapping[str, object] = field(default_factory=dict)
+    marked: int | None
+    potential: float | None
+    details: Mapping[str, object]
+
+    def __init__(
+        self,
+        kind: str,
+        size: int,
+        roots: int,
+        height: int,
+        max_degree: int,
+        marked: int | None = None,
+        potential: float | None = None,
+        details: Mapping[str, object] | None = None,
+    ) -> None:
+        values = (kind, size, roots, height, max_degree, marked, potential, {} if details is None else details)
+        for name, value in zip(self._FIELDS, values, strict=True):
+            object.__setattr__(self, name, value)
+
+    def __setattr__(self, name: str, value: object) -> None:
+        raise AttributeError(f"Shape is read-only: cannot set {name!r}")
+
+    def __delattr__(self, name: str) -> None:
+        raise AttributeError(f"Shape is read-only: cannot delete {name!r}")
+
+    def _values(self) -> tuple[object, ...]:
+        return tuple(getattr(self, name) for name in self._FIELDS)
+
+    def __eq__(self, other: object) -> bool:
+        if type(other) is not Shape:
+            return NotImplemented
+        return self._values() == other._values()
+
+    __hash__ = None  # type: ignore[assignment]  # details is a mapping
+
+    def __repr__(self) -> str:
+        return "Shape(" + ", ".join(f"{name}={getattr(self, name)!r}" for name in self._FIELDS) + ")"
