@@ -1,5 +1,6 @@
-"""The README's code: the first snippet type-checks, the heapq-to-heapkit loops agree with
-outside references, and the table of public names covers ``heapkit.__all__``."""
+"""The README's code and the API docs: the first snippet type-checks, the heapq-to-heapkit
+loops agree with outside references, the public names table covers ``heapkit.__all__``, the
+protocol members and ``new`` are documented."""
 
 from __future__ import annotations
 
@@ -89,3 +90,22 @@ def test_public_names_table_covers_everything_exported() -> None:
     table = _section("Public names")
     for name in heapkit.__all__:
         assert re.search(rf"`{name}[`(]", table), f"{name} missing from the README's public names table"
+
+
+def test_protocol_members_have_docstrings_and_no_missing_file() -> None:
+    for proto in (heapkit.Heap, heapkit.Handle):
+        members = [n for n, v in vars(proto).items() if callable(v) or isinstance(v, property)]
+        members = [n for n in members if not n.startswith("_") or n in ("__len__", "__bool__", "__iter__",
+                                                                         "__contains__")]
+        assert len(members) >= (13 if proto is heapkit.Heap else 3)
+        for name in members:
+            doc = getattr(proto, name).__doc__
+            assert doc and doc.strip(), f"{proto.__name__}.{name} has no docstring"
+        assert "api.md" not in (proto.__doc__ or "")  # it pointed to a file not in the package
+
+
+def test_new_lists_every_kind_and_option() -> None:
+    doc = heapkit.new.__doc__ or ""
+    for kind in heapkit.KINDS:
+        assert f"``{kind}``" in doc, kind
+    assert "stable" in doc and "arity" in doc
