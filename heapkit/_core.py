@@ -65,7 +65,7 @@ from heapkit.errors import InvalidHandleError
 from heapkit.errors import empty_error as empty_error
 from heapkit.errors import nan_error as nan_error
 from heapkit.errors import upward_error as upward_error
-from heapkit.protocol import Heap
+from heapkit.protocol import Handle, Heap
 
 if TYPE_CHECKING:
     from typing import Self
@@ -306,7 +306,7 @@ class HeapBase(Generic[K, V]):
     def __bool__(self) -> bool:
         return self._n != 0
 
-    def __iter__(self) -> Iterator[Any]:
+    def __iter__(self) -> Iterator[Handle[K, V]]:
         """Every live handle, no order promised.  O(n) for the whole iteration.
 
         Raises ``RuntimeError`` if the heap changes while it runs.
@@ -352,7 +352,7 @@ class HeapBase(Generic[K, V]):
             raise InvalidHandleError(f"{op}: handle {h!r} belongs to another heap")
         h._tok = self._tok
 
-    def extend(self, pairs: Iterable[tuple[K, V]]) -> list[Any]:
+    def extend(self, pairs: Iterable[tuple[K, V]]) -> list[Handle[K, V]]:
         """Insert every ``(key, value)`` pair; all or nothing.  O(k) + one meld for most kinds.
 
         Builds a separate heap of the new entries, then melds it in, so a bad

@@ -22,7 +22,7 @@ def _graph(rng: random.Random, n: int, m: int, wmax: int) -> list[list[tuple[int
 
 
 def _radix_dijkstra(adj: list[list[tuple[int, int]]], src: int, stable: bool) -> list[float]:
-    heap: RadixHeap[int] = RadixHeap(stable=stable)
+    heap: RadixHeap[int, int] = RadixHeap(stable=stable)
     handles: dict[int, Any] = {src: heap.push(0, src)}
     done: dict[int, int] = {}
     while heap:
@@ -64,13 +64,13 @@ def test_dijkstra_matches_scipy(seed: int, stable: bool) -> None:
     assert np.allclose(np.array(got), want, atol=1e-3, equal_nan=False)
 
 
-def _state(heap: RadixHeap[Any]) -> tuple[Any, ...]:
+def _state(heap: RadixHeap[Any, Any]) -> tuple[Any, ...]:
     return (heap.last, len(heap), sorted((h.key, h.value) for h in heap))
 
 
 @pytest.mark.parametrize("bad", [-1, 2.0, True, False, "3", None])
 def test_push_refuses_bad_keys_and_changes_nothing(bad: Any) -> None:
-    heap: RadixHeap[str] = RadixHeap([(4, "d"), (7, "g")])
+    heap: RadixHeap[int, str] = RadixHeap([(4, "d"), (7, "g")])
     before = _state(heap)
     with pytest.raises(heapkit.KeyOrderError) as err:
         heap.push(bad, "x")
@@ -80,7 +80,7 @@ def test_push_refuses_bad_keys_and_changes_nothing(bad: Any) -> None:
 
 
 def test_keys_below_last_popped_are_refused_everywhere() -> None:
-    heap: RadixHeap[str] = RadixHeap([(4, "d"), (7, "g"), (9, "i")])
+    heap: RadixHeap[int, str] = RadixHeap([(4, "d"), (7, "g"), (9, "i")])
     x = heap.peek()
     assert heap.pop() == (4, "d") and not x.alive
     g = next(h for h in heap if h.value == "g")
@@ -102,8 +102,8 @@ def test_keys_below_last_popped_are_refused_everywhere() -> None:
 
 
 def test_meld_needs_the_same_last_popped_key() -> None:
-    a: RadixHeap[str] = RadixHeap([(1, "a"), (5, "e")])
-    b: RadixHeap[str] = RadixHeap([(2, "b"), (6, "f")])
+    a: RadixHeap[int, str] = RadixHeap([(1, "a"), (5, "e")])
+    b: RadixHeap[int, str] = RadixHeap([(2, "b"), (6, "f")])
     a.pop()
     before = (_state(a), _state(b))
     with pytest.raises(heapkit.KeyOrderError, match=r"last popped key 1 differs from this heap's 0"):
@@ -119,14 +119,14 @@ def test_meld_needs_the_same_last_popped_key() -> None:
     b.pop()  # b is empty now (last popped 6): nothing moves, so the meld goes through
     a.meld(b)
     assert _state(a) == before[0]
-    c: RadixHeap[str] = RadixHeap([(1, "z"), (3, "c")])
+    c: RadixHeap[int, str] = RadixHeap([(1, "z"), (3, "c")])
     c.pop()
     a.meld(c)  # both last popped 1
     assert [a.pop() for _ in range(len(a))] == [(3, "c"), (5, "e")]
 
 
 def test_stable_keeps_push_order_through_redistribution() -> None:
-    heap: RadixHeap[int] = RadixHeap(stable=True)
+    heap: RadixHeap[int, int] = RadixHeap(stable=True)
     rng = random.Random(5)
     keys = [rng.randint(0, 40) for _ in range(300)]
     hs = [heap.push(k, i) for i, k in enumerate(keys)]
@@ -139,19 +139,19 @@ def test_stable_keeps_push_order_through_redistribution() -> None:
 
 
 # --- every rule of RULES, broken on purpose --------------------------------------
-def _sample() -> tuple[RadixHeap[str], dict[str, Any]]:
-    heap: RadixHeap[str] = RadixHeap([(8, "h"), (9, "i"), (12, "l"), (8, "h2"), (30, "x")])
+def _sample() -> tuple[RadixHeap[int, str], dict[str, Any]]:
+    heap: RadixHeap[int, str] = RadixHeap([(8, "h"), (9, "i"), (12, "l"), (8, "h2"), (30, "x")])
     heap.pop()  # last popped key 8
     return heap, {h.value: h for h in heap}
 
 
-def _corrupt_key_type(heap: RadixHeap[str], by: dict[str, Any]) -> Any:
+def _corrupt_key_type(heap: RadixHeap[int, str], by: dict[str, Any]) -> Any:
     x = by["i"]
     x._key = x._k = 9.0
     return x
 
 
-def _corrupt_monotone(heap: RadixHeap[str], by: dict[str, Any]) -> Any:
+def _corrupt_monotone(heap: RadixHeap[int, str], by: dict[str, Any]) -> Any:
     # keys 0..7 with last 8 differ first at bit 3: bucket 4, so only "monotone" breaks
     x = by["l"]
     heap._take(x)
@@ -160,25 +160,25 @@ def _corrupt_monotone(heap: RadixHeap[str], by: dict[str, Any]) -> Any:
     return x
 
 
-def _corrupt_bucket(heap: RadixHeap[str], by: dict[str, Any]) -> Any:
+def _corrupt_bucket(heap: RadixHeap[int, str], by: dict[str, Any]) -> Any:
     x = by["x"]
     heap._take(x)
     heap._put(x, 2)
     return x
 
 
-def _corrupt_index(heap: RadixHeap[str], by: dict[str, Any]) -> Any:
+def _corrupt_index(heap: RadixHeap[int, str], by: dict[str, Any]) -> Any:
     x = by["i"]
     x._i += 5
     return x
 
 
-def _corrupt_size(heap: RadixHeap[str], by: dict[str, Any]) -> Any:
+def _corrupt_size(heap: RadixHeap[int, str], by: dict[str, Any]) -> Any:
     heap._n += 1
     return None
 
 
-def _corrupt_ownership(heap: RadixHeap[str], by: dict[str, Any]) -> Any:
+def _corrupt_ownership(heap: RadixHeap[int, str], by: dict[str, Any]) -> Any:
     x = by["x"]
     x._tok = RadixHeap()._tok
     return x
@@ -217,7 +217,7 @@ def test_copy_and_pickle_keep_last_and_order() -> None:
     import copy
     import pickle
 
-    heap: RadixHeap[int] = RadixHeap((k, k) for k in (5, 3, 11, 3, 40))
+    heap: RadixHeap[int, int] = RadixHeap((k, k) for k in (5, 3, 11, 3, 40))
     heap.pop()
     for twin in (copy.copy(heap), copy.deepcopy(heap), pickle.loads(pickle.dumps(heap))):
         heapkit.check(twin)

@@ -10,6 +10,7 @@ import pytest
 from hypothesis import given
 from hypothesis import strategies as st
 
+import heapkit
 from heapkit.testing import adapt, assert_conforms, machine, strategies
 from heapkit.testing.reference import ReferenceHeap
 from tests.kinds import NAMES, make, monotone
@@ -114,20 +115,29 @@ def test_message_lines_replay_the_failure() -> None:
     assert popped[1][0] < popped[0][0], (popped, message)
 
 
+class Jobs:
+    """A queue with its own method names (on the reference model)."""
+
+    def __init__(self) -> None:
+        self.q: ReferenceHeap[Any, Any] = ReferenceHeap()
+
+    def add(self, k: Any, v: Any) -> Any:
+        return self.q.push(k, v)
+
+    def take(self) -> Any:
+        return self.q.pop()
+
+    def first(self) -> Any:
+        return self.q.peek()
+
+    def __len__(self) -> int:
+        return len(self.q)
+
+    def __iter__(self) -> Any:
+        return iter(self.q)
+
+
 def test_adapt_maps_other_names() -> None:
-    class Jobs:
-        def __init__(self) -> None:
-            self.q: ReferenceHeap[Any, Any] = ReferenceHeap()
-
-        def add(self, k: Any, v: Any) -> Any:
-            return self.q.push(k, v)
-
-        def take(self) -> Any:
-            return self.q.pop()
-
-        def __len__(self) -> int:
-            return len(self.q)
-
     q = adapt(Jobs(), push="add", pop="take", peek=lambda jobs: jobs.q.peek())
     q.push(3, "c")
     q.push(1, "a")
@@ -142,3 +152,11 @@ def test_strategies_draw_what_they_promise(ks: list[Any], ts: list[Any], ops: li
     assert all(k == k for k in ks)  # never NaN
     assert all(isinstance(t, tuple) and len(t) == 2 for t in ts)
     assert all(op in strategies.OPERATIONS for op, _ in ops)
+
+
+def test_check_works_on_an_adapt_wrapper() -> None:
+    jobs = adapt(Jobs(), push="add", pop="take", peek="first")
+    for k in (5, 2, 8):
+        jobs.push(k, f"job {k}")
+    shape = heapkit.check(jobs)
+    assert shape.size == 3 and shape.details["checked"] == "protocol only"

@@ -28,10 +28,11 @@ from heapkit._core import HeapBase
 from heapkit.contracts.history import Entry, HistoryError
 from heapkit.contracts.report import Report, check
 from heapkit.errors import HeapError
+from heapkit.protocol import Heap
 
 __all__ = ["checked", "unchecked"]
 
-H = TypeVar("H", bound=HeapBase[Any, Any])
+H = TypeVar("H", bound=Heap[Any, Any])  # any heap typed by the protocol; the body checks the class
 
 MODE = "checked"
 

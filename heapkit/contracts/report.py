@@ -142,41 +142,56 @@ def check(heap: Any) -> Shape:
 
 
 def _check_protocol(heap: Any) -> Shape:
-    """What the protocol alone can show about a user's own queue.  O(n)."""
+    """What the protocol alone can show about a user's own queue (or an ``adapt`` wrapper).  O(n)."""
     report = Report()
     n = len(heap)
-    report.run(_survey_protocol, heap, n)
+    seen = report.run(_survey_protocol, heap, n)
     if report.problems:
         raise report.error(heap)
     return Shape(
         kind=type(heap).__name__, size=n, roots=1 if n else 0, height=0, max_degree=0,
-        details={"checked": "protocol only"},
+        details={"checked": "protocol only" if seen else "len, bool and peek only (the queue is not iterable)"},
     )
 
 
-def _survey_protocol(report: Report, heap: Any, n: int) -> None:
-    handles = list(heap)
-    if len(handles) != n:
-        report.fail("size", None, [], f"iteration gives {len(handles)} handles, len is {n}")
+def _key_of(item: Any) -> Any:
+    """A handle's key, or the key of a ``(key, value)`` pair (what some queues' ``peek`` gives)."""
+    return item[0] if isinstance(item, tuple) and len(item) == 2 else item.key
+
+
+def _survey_protocol(report: Report, heap: Any, n: int) -> bool:
+    """The protocol rules; False when the queue cannot be iterated (then only len, bool, peek)."""
     if bool(heap) != (n > 0):
         report.fail("size", None, [], f"bool(heap) is {bool(heap)} but len is {n}")
+    try:
+        handles = list(heap)
+    except TypeError:  # not iterable: a user's queue need not be
+        if n:
+            tk = _key_of(heap.peek())
+            if tk != tk:
+                report.fail("key", None, [], f"peek gives key {tk!r}, which is not equal to itself (NaN)")
+        return False
+    if len(handles) != n:
+        report.fail("size", None, [], f"iteration gives {len(handles)} handles, len is {n}")
     seen: set[int] = set()
+    member = hasattr(heap, "__contains__")
     for h in handles:
         if id(h) in seen:
             report.fail("unique", h, [], "iteration gives this handle twice")
         seen.add(id(h))
-        if not h.alive:
+        if not getattr(h, "alive", True):
             report.fail("alive", h, [], "iteration gives a dead handle")
-        elif h not in heap:
+        elif member and h not in heap:
             report.fail("alive", h, [], "an iterated handle is not `in` the heap")
-        if h.key != h.key:
+        if _key_of(h) != _key_of(h):
             report.fail("key", h, [], "the key is not equal to itself (NaN)")
     if not handles:
-        return
+        return True
     top = heap.peek()
-    if id(top) not in seen:
+    if not isinstance(top, tuple) and id(top) not in seen:
         report.fail("minimum", top, [], "peek gives a handle that iteration does not")
-    tk = top.key
+    tk = _key_of(top)
     for h in handles:
-        if h.key < tk:
+        if _key_of(h) < tk:
             report.fail("minimum", h, [], f"peek gives key {tk!r} but this key is smaller")
+    return True

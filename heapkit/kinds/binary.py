@@ -51,7 +51,7 @@ class BinaryHeap(DaryHeap[K, V]):
     BOUNDS: ClassVar[str] = "worst-case: push, decrease_key, pop, remove, change_key O(log n); peek O(1)"
     DEFAULT_ARITY: ClassVar[int] = 2
 
-    def push(self, key: K, value: V) -> _Slot[K, V]:
+    def push(self, key: K, value: V) -> Handle[K, V]:
         """Insert an entry and return its handle.  O(log n) worst-case.
 
         >>> BinaryHeap().push(3, 'c').key

@@ -97,7 +97,7 @@ class BinomialHeap(BinomialRules, HeapBase[K, V], Generic[K, V]):
         self._raised = 0
         self._finish_init(pairs)
 
-    def push(self, key: K, value: V) -> _Node[K, V]:
+    def push(self, key: K, value: V) -> Handle[K, V]:
         """Insert an entry and return its handle.  O(1) amortized, O(log n) worst-case.
 
         >>> h = BinomialHeap()
@@ -156,7 +156,7 @@ class BinomialHeap(BinomialRules, HeapBase[K, V], Generic[K, V]):
         self._ver += 1
         return x
 
-    def peek(self) -> _Node[K, V]:
+    def peek(self) -> Handle[K, V]:
         """The handle of a smallest entry.  O(1) worst-case.
 
         >>> BinomialHeap([(4, 'd'), (1, 'a')]).peek().value

@@ -206,7 +206,7 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
             carry._i = t
             carry = q
 
-    def push(self, key: K, value: V) -> _Slot[K, V]:
+    def push(self, key: K, value: V) -> Handle[K, V]:
         """Insert an entry and return its handle.  O(log_d n) worst-case.
 
         >>> DaryHeap().push(3, 'c').key
@@ -245,7 +245,7 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
         self._ver += 1
         return x
 
-    def peek(self) -> _Slot[K, V]:
+    def peek(self) -> Handle[K, V]:
         """The handle of a smallest entry.  O(1) worst-case.
 
         >>> DaryHeap([(4, 'd'), (1, 'a')]).peek().value

@@ -105,7 +105,7 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
         self._cons = -1
         self._finish_init(pairs)
 
-    def push(self, key: K, value: V) -> _Node[K, V]:
+    def push(self, key: K, value: V) -> Handle[K, V]:
         """Insert an entry as a new root and return its handle.  O(1) worst-case.
 
         >>> h = FibonacciHeap()
@@ -134,7 +134,7 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
         self._ver += 1
         return node
 
-    def peek(self) -> _Node[K, V]:
+    def peek(self) -> Handle[K, V]:
         """The handle of a smallest entry.  O(1) worst-case.
 
         >>> FibonacciHeap([(4, 'd'), (1, 'a')]).peek().value

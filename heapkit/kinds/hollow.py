@@ -115,7 +115,7 @@ class HollowHeap(HeapBase[K, V], Generic[K, V]):
         self._reset()
         self._finish_init(pairs)
 
-    def push(self, key: K, value: V) -> _Entry[K, V]:
+    def push(self, key: K, value: V) -> Handle[K, V]:
         """Insert an entry and return its handle.  O(1) worst-case.
 
         >>> HollowHeap().push(3, 'c').key
@@ -144,7 +144,7 @@ class HollowHeap(HeapBase[K, V], Generic[K, V]):
         self._ver += 1
         return e
 
-    def peek(self) -> _Entry[K, V]:
+    def peek(self) -> Handle[K, V]:
         """The handle of a smallest entry.  O(1) worst-case.
 
         >>> HollowHeap([(4, 'd'), (1, 'a')]).peek().value

@@ -149,7 +149,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
         return e
 
     # --- protocol ----------------------------------------------------------
-    def push(self, key: K, value: V) -> _Handle[K, V]:
+    def push(self, key: K, value: V) -> Handle[K, V]:
         """Insert an entry and return its handle.  O(log n) worst-case.
 
         >>> LazyHeap().push(3, 'c').key
@@ -173,7 +173,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
         self._ver += 1
         return h
 
-    def peek(self) -> _Handle[K, V]:
+    def peek(self) -> Handle[K, V]:
         """The handle of a smallest entry.  O(1) amortized (drops stale entries on top).
 
         >>> LazyHeap([(4, 'd'), (1, 'a')]).peek().value

@@ -105,7 +105,7 @@ class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
         self._root = None
         self._finish_init(pairs)
 
-    def push(self, key: K, value: V) -> _Node[K, V]:
+    def push(self, key: K, value: V) -> Handle[K, V]:
         """Insert an entry and return its handle.  O(1) worst-case.
 
         >>> h = PairingHeap()
@@ -143,7 +143,7 @@ class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
         self._ver += 1
         return node
 
-    def peek(self) -> _Node[K, V]:
+    def peek(self) -> Handle[K, V]:
         """The handle of a smallest entry.  O(1) worst-case.
 
         >>> PairingHeap([(4, 'd'), (1, 'a')]).peek().value

@@ -54,7 +54,8 @@ from heapkit.protocol import Handle
 
 __all__ = ["RadixHeap"]
 
-K = TypeVar("K")
+#: Radix keys are ints (``bool`` is refused at run time); ``K`` lets a caller name a subtype.
+K = TypeVar("K", bound=int)
 V = TypeVar("V")
 
 _order = attrgetter("_k")
@@ -87,7 +88,7 @@ def _key_error(op: str, key: object, last: int) -> KeyOrderError:
     )
 
 
-class RadixHeap(HeapBase[int, V], Generic[V]):
+class RadixHeap(HeapBase[K, V], Generic[K, V]):
     """Radix heap for monotone non-negative integer keys (Dijkstra, event times).
 
     >>> h = RadixHeap([(5, 'e'), (2, 'b')])
@@ -119,10 +120,10 @@ class RadixHeap(HeapBase[int, V], Generic[V]):
     POTENTIAL: ClassVar[str] = "sum over entries of the bucket index (k ^ last).bit_length()"
     PHI_C: ClassVar[float] = 1.0
 
-    _buckets: list[list[_Item[int, V]]]
+    _buckets: list[list[_Item[K, V]]]
     _last: int
 
-    def __init__(self, pairs: Iterable[tuple[int, V]] = (), *, stable: bool = False) -> None:
+    def __init__(self, pairs: Iterable[tuple[K, V]] = (), *, stable: bool = False) -> None:
         self._setup(stable)
         self._buckets = [[]]
         self._last = 0
@@ -157,7 +158,7 @@ class RadixHeap(HeapBase[int, V], Generic[V]):
             bl[i] = y
             y._i = i
 
-    def push(self, key: int, value: V) -> _Item[int, V]:
+    def push(self, key: K, value: V) -> Handle[K, V]:
         """Insert an entry and return its handle.  O(1) worst-case.
 
         >>> RadixHeap().push(3, 'c').key
@@ -189,7 +190,7 @@ class RadixHeap(HeapBase[int, V], Generic[V]):
     # Precondition: the heap is not empty.  Restores: bucket 0 is not empty
     # (moves the first non-empty bucket down around its minimum).  Compares
     # before it moves anything.
-    def _settle(self) -> list[_Item[int, V]]:
+    def _settle(self) -> list[_Item[K, V]]:
         buckets = self._buckets
         b0 = buckets[0]
         if b0:
@@ -206,7 +207,7 @@ class RadixHeap(HeapBase[int, V], Generic[V]):
         src.clear()
         return b0
 
-    def peek(self) -> _Item[int, V]:
+    def peek(self) -> Handle[K, V]:
         """The handle of a smallest entry.  O(s) worst-case for the s entries of the first
         non-empty bucket; it moves nothing, so the keys a push accepts stay the same.
 
@@ -220,7 +221,7 @@ class RadixHeap(HeapBase[int, V], Generic[V]):
             return min(b0, key=_order) if self._stable else b0[-1]
         return min(next(filter(None, self._buckets)), key=_order)
 
-    def pop(self) -> tuple[int, V]:
+    def pop(self) -> tuple[K, V]:
         """Remove and return a smallest ``(key, value)``.  O(log C) amortized.
 
         >>> RadixHeap([(4, 'd'), (1, 'a')]).pop()
@@ -241,7 +242,7 @@ class RadixHeap(HeapBase[int, V], Generic[V]):
         x._tok = None
         return x._key, x.value
 
-    def decrease_key(self, handle: Handle[int, V], key: int) -> None:
+    def decrease_key(self, handle: Handle[K, V], key: K) -> None:
         """Give the entry a key that is not larger (nor below ``last``).  O(1) worst-case.
 
         >>> h = RadixHeap([(4, 'd'), (6, 'f')])
@@ -276,7 +277,7 @@ class RadixHeap(HeapBase[int, V], Generic[V]):
         x._k = k
         self._ver += 1
 
-    def change_key(self, handle: Handle[int, V], key: int) -> None:
+    def change_key(self, handle: Handle[K, V], key: K) -> None:
         """Give the entry any key not below ``last``.  O(1) worst-case.
 
         >>> h = RadixHeap([(4, 'd')])
@@ -299,7 +300,7 @@ class RadixHeap(HeapBase[int, V], Generic[V]):
         x._k = k
         self._ver += 1
 
-    def remove(self, handle: Handle[int, V]) -> tuple[int, V]:
+    def remove(self, handle: Handle[K, V]) -> tuple[K, V]:
         """Delete the entry and return ``(key, value)``.  O(1) worst-case.
 
         >>> h = RadixHeap([(1, 'a'), (2, 'b')])
@@ -316,12 +317,12 @@ class RadixHeap(HeapBase[int, V], Generic[V]):
         return x._key, x.value
 
     # --- SPI ---------------------------------------------------------------
-    def _spawn(self) -> RadixHeap[V]:
-        new: RadixHeap[V] = RadixHeap(stable=self._stable)
+    def _spawn(self) -> RadixHeap[K, V]:
+        new: RadixHeap[K, V] = RadixHeap(stable=self._stable)
         new._last = self._last
         return new
 
-    def _meld_from(self, other: RadixHeap[V]) -> None:
+    def _meld_from(self, other: RadixHeap[K, V]) -> None:
         if other._last != self._last:
             raise KeyOrderError(
                 f"meld: the other heap's last popped key {other._last!r} differs from this "
@@ -338,7 +339,7 @@ class RadixHeap(HeapBase[int, V], Generic[V]):
         self._buckets = [[]]
         self._last = 0
 
-    def _handles(self) -> Iterator[_Item[int, V]]:
+    def _handles(self) -> Iterator[_Item[K, V]]:
         for bl in self._buckets:
             yield from bl
 

@@ -144,7 +144,7 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
         self._work = 0
         self._finish_init(pairs)
 
-    def push(self, key: K, value: V) -> _Node[K, V]:
+    def push(self, key: K, value: V) -> Handle[K, V]:
         """Insert an entry and return its handle.  O(1) worst-case.
 
         >>> h = RankPairingHeap()
@@ -170,7 +170,7 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
         self._ver += 1
         return node
 
-    def peek(self) -> _Node[K, V]:
+    def peek(self) -> Handle[K, V]:
         """The handle of a smallest entry.  O(1) worst-case.
 
         >>> RankPairingHeap([(4, 'd'), (1, 'a')]).peek().value

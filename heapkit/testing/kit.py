@@ -8,14 +8,23 @@ as runnable Python lines, and what was expected versus what came.
 ``machine(factory)`` is the state machine class itself, for pytest collection:
 ``TestMyQueue = machine(MyQueue).TestCase``.  ``adapt(obj, push="add", ...)``
 maps a queue with other method names onto the protocol.
+
+What the kit requires of a queue (each failure names the ``adapt`` argument or
+the flag that fixes it): ``push(key, value)``; ``pop()`` returning a
+``(key, value)`` pair and raising ``IndexError`` when empty; ``len()``; ``peek()``
+returning a handle with ``.key`` or a ``(key, value)`` pair and raising
+``IndexError`` when empty (``peek=False`` leaves it out); ``decrease_key``,
+``change_key``, ``remove`` (a dead handle raises ``ValueError``) and ``meld``, each
+left out with its flag set to False.  Handles may have ``.key`` and ``.alive``;
+the kit compares them when present.
 """
 
 from __future__ import annotations
 
-from collections.abc import Callable
+from collections.abc import Callable, Iterator
 from typing import Any
 
-from hypothesis import HealthCheck, settings
+from hypothesis import HealthCheck, Phase, settings
 from hypothesis import strategies as st
 from hypothesis.stateful import (
     RuleBasedStateMachine,
@@ -35,9 +44,24 @@ def _same(a: Any, b: Any) -> bool:
     return not (a < b) and not (b < a)
 
 
+#: What to write to fix a missing requirement, per operation.
+_FIX = {
+    "pop": "adapt(q, pop=lambda q: ...) returning a (key, value) pair and raising IndexError when empty",
+    "peek": "adapt(q, peek=lambda q: ...) returning a handle with .key or a (key, value) pair, "
+            "raising IndexError when empty; or leave peek out with peek=False",
+    "remove": "adapt(q, remove=lambda q, handle: ...) raising ValueError for a dead handle; "
+              "or leave remove out with remove=False",
+}
+
+
 def _key_of(item: Any) -> Any:
-    """The key of what ``peek`` returned: a handle, or a ``(key, value)`` pair."""
-    return item[0] if isinstance(item, tuple) else item.key
+    """The key of what ``peek`` returned: a handle, or a ``(key, value)`` pair; else None."""
+    if isinstance(item, tuple) and len(item) == 2:
+        return item[0]
+    return getattr(item, "key", _NO_KEY)
+
+
+_NO_KEY = object()
 
 
 class _Base(RuleBasedStateMachine):
@@ -46,6 +70,7 @@ class _Base(RuleBasedStateMachine):
     factory: Callable[[], Any]
     stable: bool
     melds: bool
+    peeks: bool
 
     def __init__(self) -> None:
         super().__init__()
@@ -86,8 +111,13 @@ class _Base(RuleBasedStateMachine):
         except kind:
             return
         except Exception as exc:
-            self.fail(f"`{line}` raised {type(exc).__name__}, expected {kind.__name__}")
-        self.fail(f"`{line}` returned normally, expected {kind.__name__}")
+                self.fail(f"`{line}` raised {type(exc).__name__}, expected {kind.__name__}{self._fix(line)}")
+        self.fail(f"`{line}` returned normally, expected {kind.__name__}{self._fix(line)}")
+
+    @staticmethod
+    def _fix(line: str) -> str:
+        op = line.split(".", 1)[-1].split("(", 1)[0]
+        return f"; to fix: {_FIX[op]}" if op in _FIX else ""
 
     @staticmethod
     def qname(w: int) -> str:
@@ -112,7 +142,8 @@ class _Base(RuleBasedStateMachine):
         got = self._call(f"{self.qname(w)}.pop()", q.pop)
         want = ref.peek()
         if not isinstance(got, tuple) or len(got) != 2:
-            self.fail(f"pop returned {got!r}, expected a (key, value) pair like {(want.key, want.value)!r}")
+            self.fail(f"pop returned {got!r}, expected a (key, value) pair like {(want.key, want.value)!r}; "
+                      f"to fix: {_FIX['pop']}")
         key, value = got
         if self.stable:
             if (key, value) != (want.key, want.value):
@@ -132,8 +163,12 @@ class _Base(RuleBasedStateMachine):
             self._expect_error(f"{self.qname(w)}.peek()", q.peek, IndexError)
             return
         got = self._call(f"{self.qname(w)}.peek()", q.peek)
-        if not _same(_key_of(got), ref.peek().key):
-            self.fail(f"peek gave key {_key_of(got)!r}, but {ref.peek().key!r} is the smallest")
+        key = _key_of(got)
+        if key is _NO_KEY:
+            self.fail(f"peek returned {got!r}, which has no .key and is not a (key, value) pair; "
+                      f"to fix: {_FIX['peek']}")
+        if not _same(key, ref.peek().key):
+            self.fail(f"peek gave key {key!r}, but {ref.peek().key!r} is the smallest")
 
     def _live(self, data: st.DataObject) -> tuple[int, tuple[str, Any, Any]] | None:
         live = [e for e in self.entries if e[2].alive]
@@ -168,11 +203,16 @@ def machine(
     meld: bool = True,
     stable: bool = False,
     keys: st.SearchStrategy[Any] | None = None,
+    peek: bool = True,
+    max_examples: int | None = None,
+    settings: settings | None = None,
 ) -> type[RuleBasedStateMachine]:
-    """The Hypothesis state machine behind :func:`assert_conforms`.
+    """The Hypothesis state machine behind :func:`assert_conforms`.  O(1) to build.
 
     Capability flags leave out operations the queue lacks.  For pytest:
-    ``TestMyQueue = machine(MyQueue).TestCase``.
+    ``TestMyQueue = machine(MyQueue, max_examples=50).TestCase``; ``settings``
+    (a ``hypothesis.settings``) replaces the kit's defaults, ``max_examples``
+    overrides the count in either.
 
     >>> from heapkit import PairingHeap
     >>> issubclass(machine(PairingHeap), RuleBasedStateMachine)
@@ -181,7 +221,7 @@ def machine(
     k = default_keys() if keys is None else keys
     sides = st.integers(0, 1) if meld else st.just(0)
     # The class body defines methods with these names, so read the flags under others.
-    has = {"decrease": decrease_key, "change": change_key, "remove": remove, "meld": meld}
+    has = {"decrease": decrease_key, "change": change_key, "remove": remove, "meld": meld, "peek": peek}
 
     class QueueMachine(_Base):
         @rule(w=sides, key=k)
@@ -197,9 +237,11 @@ def machine(
         def pop(self, w: int) -> None:
             self._pop(w)
 
-        @rule(w=sides)
-        def peek(self, w: int) -> None:
-            self._peek(w)
+        if has["peek"]:
+
+            @rule(w=sides)
+            def peek(self, w: int) -> None:
+                self._peek(w)
 
         if has["decrease"]:
 
@@ -263,6 +305,11 @@ def machine(
     QueueMachine.factory = staticmethod(factory)
     QueueMachine.stable = stable
     QueueMachine.melds = meld
+    QueueMachine.peeks = peek
+    chosen = _settings() if settings is None else settings
+    if max_examples is not None:
+        chosen = _settings_cls(chosen, max_examples=max_examples)
+    QueueMachine.TestCase.settings = chosen
     QueueMachine.__name__ = QueueMachine.__qualname__ = f"Conformance_{getattr(factory, '__name__', 'queue')}"
     return QueueMachine
 
@@ -277,6 +324,8 @@ def assert_conforms(
     stable: bool = False,
     max_examples: int = 200,
     keys: st.SearchStrategy[Any] | None = None,
+    peek: bool = True,
+    settings: settings | None = None,
 ) -> None:
     """Drive queues from ``factory()`` beside the reference; raise on the first misbehaviour.
 
@@ -287,15 +336,27 @@ def assert_conforms(
     >>> from heapkit import BinaryHeap
     >>> assert_conforms(BinaryHeap, max_examples=5)
     """
-    cls = machine(factory, decrease_key=decrease_key, change_key=change_key,
-                  remove=remove, meld=meld, stable=stable, keys=keys)
-    run_state_machine_as_test(
-        cls,
-        settings=settings(
-            max_examples=max_examples,
-            deadline=None,
-            suppress_health_check=[HealthCheck.too_slow, HealthCheck.filter_too_much],
-        ),
+    cls = machine(factory, decrease_key=decrease_key, change_key=change_key, remove=remove, meld=meld,
+                  stable=stable, keys=keys, peek=peek, max_examples=max_examples, settings=settings)
+    try:
+        run_state_machine_as_test(cls, settings=cls.TestCase.settings)
+    except AssertionError as exc:
+        # One report: the kit's message alone, without Hypothesis's notes (its own
+        # step listing and explanation) or the chained traceback through its engine.
+        raise AssertionError(str(exc)) from None
+
+
+_settings_cls = settings
+
+
+def _settings() -> settings:
+    """The kit's defaults: no deadline (user queues may be slow), no explain phase."""
+    return _settings_cls(
+        max_examples=200,
+        deadline=None,
+        print_blob=False,
+        phases=[p for p in Phase if p is not Phase.explain],
+        suppress_health_check=[HealthCheck.too_slow, HealthCheck.filter_too_much],
     )
 
 
@@ -339,12 +400,38 @@ class Adapted:
         fn = self._names.get("__len__")
         return int(fn(self.inner)) if callable(fn) else len(self.inner)
 
+    def __bool__(self) -> bool:
+        return len(self) > 0
+
+    def __iter__(self) -> Iterator[Any]:
+        """The inner queue's handles (``adapt(q, __iter__=...)`` maps another name)."""
+        target = self._names.get("__iter__", "__iter__")
+        if callable(target):
+            return iter(target(self.inner))
+        if not hasattr(self.inner, target):
+            raise TypeError(
+                f"{type(self.inner).__name__} is not iterable; give adapt(q, __iter__=lambda q: ...) "
+                "the live handles to let heapkit.check inspect every entry"
+            )
+        return iter(getattr(self.inner, target)())
+
+    def __contains__(self, handle: object) -> bool:
+        target = self._names.get("__contains__")
+        if callable(target):
+            return bool(target(self.inner, handle))
+        if hasattr(self.inner, "__contains__"):
+            return handle in self.inner
+        return bool(getattr(handle, "alive", True))
+
+    def __repr__(self) -> str:
+        return f"adapt({self.inner!r})"
+
 
 def adapt(obj: Any, **names: str | Callable[..., Any]) -> Adapted:
-    """Map a queue with other method names onto the protocol.
+    """Map a queue with other method names onto the protocol.  O(1).
 
     Each keyword names a protocol operation (``push, pop, peek, decrease_key,
-    change_key, remove, meld, __len__``) and gives the queue's method name, or a
+    change_key, remove, meld, __len__, __iter__, __contains__``) and gives the queue's method name, or a
     function ``f(queue, *args)``.  Unnamed operations keep their names.
 
     >>> class Jobs:
