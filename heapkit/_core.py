@@ -56,14 +56,19 @@ live handles and every rule intact.
 
 from __future__ import annotations
 
-import itertools
 import threading
 from collections.abc import Callable, Iterable, Iterator
 from typing import TYPE_CHECKING, Any, ClassVar, Generic, TypeVar
 
+from heapkit._order import WRAPPERS as WRAPPERS
+from heapkit._order import Stable as Stable
+from heapkit._order import seq_after
+from heapkit._order import seq_of as seq_of
+from heapkit._order import stable_wrap as stable_wrap
 from heapkit.errors import InvalidHandleError
 from heapkit.errors import empty_error as empty_error
 from heapkit.errors import nan_error as nan_error
+from heapkit.errors import nan_inside as nan_inside
 from heapkit.errors import upward_error as upward_error
 from heapkit.protocol import Heap
 
@@ -75,63 +80,10 @@ V = TypeVar("V")
 
 Wrap = Callable[[Any, Any], Any]
 
-#: Push order within the process, shared by every stable heap so that order
-#: survives meld.  ``next()`` on a count is atomic under the GIL.
-_SEQ = itertools.count()
-
 #: Called with every heap constructed while ``HEAPKIT_DEBUG`` asks for it, except the
 #: heaps heapkit builds for its own use (``_spawn``, flagged in ``_internal``).
 _internal = threading.local()
 on_new: Callable[[HeapBase[Any, Any]], None] | None = None
-
-#: Wrapper types that carry an ``inner`` ordering object (the auditor adds its own).
-WRAPPERS: set[type] = set()
-
-
-class Stable:
-    """Ordering object of a stable heap: ``(key, push order)`` compared with one ``<``.
-
-    If ``a`` was pushed first, ``a`` comes first unless ``b.key < a.key``;
-    otherwise ``b`` comes first unless ``a.key < b.key``.  Never equal to
-    anything, so a tuple holding it compares no further.
-    """
-
-    __slots__ = ("key", "seq")
-
-    def __init__(self, key: Any, seq: int) -> None:
-        self.key = key
-        self.seq = seq
-
-    def __lt__(self, other: Stable) -> bool:
-        if self.seq < other.seq:
-            return not other.key < self.key
-        return bool(self.key < other.key)
-
-    def __eq__(self, other: object) -> bool:
-        return False
-
-    __hash__ = None  # type: ignore[assignment]
-
-    def __repr__(self) -> str:
-        return f"{self.key!r}#{self.seq}"
-
-
-def stable_wrap(key: Any, old: Any) -> Stable:
-    """Make the :class:`Stable` ordering object of ``key`` (keeping ``old``'s push order)."""
-    seq = None if old is None else seq_of(old)
-    return Stable(key, next(_SEQ) if seq is None else seq)
-
-
-def seq_of(o: Any) -> int | None:
-    """The push order inside an ordering object, or None where it has none."""
-    while True:
-        t = type(o)
-        if t is Stable:
-            return int(o.seq)
-        if t not in WRAPPERS:
-            return None
-        o = o.inner
-
 
 class Owner:
     """Ownership token.  A heap holds one; a handle points at its heap's token.
@@ -250,12 +202,20 @@ class HeapBase(Generic[K, V]):
         """Constructor options besides ``stable`` (they must match for ``meld``)."""
         return {}
 
-    def _family(self) -> type:
-        """The class whose structure this heap has (checked/audited modes share it)."""
+    def _kind_class(self) -> type:
+        """The kind's own class under any mode subclass (what a copy or pickle rebuilds)."""
         for c in type(self).__mro__:
             if "KIND" in c.__dict__:
                 return c
         return type(self)  # pragma: no cover - every kind sets KIND
+
+    def _family(self) -> type:
+        """The class whose structure this heap has (checked/audited modes share it)."""
+        return self._kind_class()
+
+    def _layout_problem(self, handles: list[Any], layout: Any) -> str | None:
+        """What is wrong with ``_export`` data for this kind, without comparing keys, or None."""
+        return None if layout is None else f"expected no layout, got {layout!r:.80}"
 
     def _meld_from(self, other: Self) -> None:
         raise NotImplementedError
@@ -285,7 +245,7 @@ class HeapBase(Generic[K, V]):
         ordering object.  Fibonacci, binomial, rank-pairing, hollow; the hot kinds inline it."""
         if type(h) is not self._NODE or h._tok is not self._tok:
             self._claim(h, op)
-        if key != key:
+        if key != key or (isinstance(key, tuple) and nan_inside(key)):
             raise nan_error(op, key)
         w = self._wrap
         return key if w is None else w(key, h._k)
@@ -343,6 +303,8 @@ class HeapBase(Generic[K, V]):
         """
         tok = getattr(h, "_tok", None)
         if not isinstance(tok, Owner):
+            if tok is None and isinstance(h, HandleBase | LeafHandle) and h.alive:  # type: ignore[union-attr]
+                raise InvalidHandleError(f"{op}: handle {h!r} belongs to a heap of another kind")
             if tok is None and isinstance(h, HandleBase | LeafHandle):
                 raise InvalidHandleError(
                     f"{op}: handle {h!r} is dead (its entry was popped, removed or cleared)"
@@ -463,10 +425,37 @@ class HeapBase(Generic[K, V]):
     # --- copy and pickle: flat data, never recursion --------------------------
     def __reduce__(self) -> tuple[Any, ...]:
         handles, layout = self._export()
-        return (_restore, (self._family(), self._stable, self._options()), (handles, layout))
+        return (_restore, (self._kind_class(), self._stable, self._options()), (handles, layout))
+
+    def _validate(self, state: Any, node: type) -> tuple[list[Any], Any]:
+        """Refuse ``__setstate__`` data that would load a heap ``check`` rejects: handles of
+        another class or repeated, a layout whose counts or links disagree (no key is
+        compared: O(n)).  A stable heap's later pushes come after every loaded entry."""
+        name = type(self).__name__
+        if type(state) is not tuple or len(state) != 2 or type(state[0]) is not list:
+            raise ValueError(f"load {name}: expected (handles, layout), got {state!r:.80}")
+        handles, layout = state
+        seen: set[int] = set()
+        top = -1
+        h: Any
+        for h in handles:
+            if type(h) is not node or id(h) in seen:
+                what = "repeated" if id(h) in seen else f"not a {node.__name__}"
+                raise ValueError(f"load {name}: handle {h!r:.80} is {what}")
+            seen.add(id(h))
+            if self._stable:
+                seq = seq_of(h._k if isinstance(h, HandleBase) else getattr(h, "_e", None))
+                if seq is None:
+                    raise ValueError(f"load {name}: handle {h!r:.80} has no push order")
+                top = max(top, seq)
+        why = self._layout_problem(handles, layout)
+        if why is not None:
+            raise ValueError(f"load {name}: {why}")
+        seq_after(top)
+        return handles, layout
 
     def __setstate__(self, state: tuple[list[Any], Any]) -> None:
-        handles, layout = state
+        handles, layout = self._validate(state, self._NODE)
         tok = self._tok
         for h in handles:
             h._tok = tok
@@ -476,7 +465,7 @@ class HeapBase(Generic[K, V]):
     def __copy__(self) -> Self:
         """A new heap with the same entries (keys and values shared) and new handles."""
         handles, layout = self._export()
-        new = _restore(self._family(), self._stable, self._options())
+        new = _restore(self._kind_class(), self._stable, self._options())
         fresh = [type(h)(h._key, h._k, h.value, None) for h in handles]
         new.__setstate__((fresh, layout))
         return new  # type: ignore[no-any-return]

@@ -49,8 +49,31 @@ class BoundExceededError(HeapError, AssertionError):
     """An audited operation cost more than its kind's documented bound."""
 
 
+def nan_inside(key: object) -> bool:
+    """True if ``key`` is not equal to itself (NaN) or is a tuple holding such a value
+    at any depth (tuple ``!=`` skips items that are the same object).  O(size of the key).
+
+    >>> nan_inside((1, (2, float('nan')))), nan_inside((1, 'a')), nan_inside(float('nan'))
+    (True, False, True)
+    """
+    if key != key:
+        return True
+    if not isinstance(key, tuple):
+        return False
+    stack = [key]
+    while stack:
+        for x in stack.pop():
+            if isinstance(x, tuple):
+                stack.append(x)
+            elif x != x:
+                return True
+    return False
+
+
 # --- the messages kinds raise (``heapkit._core`` re-exports them) ---------------
 def nan_error(op: str, key: object) -> KeyOrderError:
+    if key == key:
+        return KeyOrderError(f"{op}: key {key!r} holds a value that is not equal to itself (NaN cannot be ordered)")
     return KeyOrderError(f"{op}: key {key!r} is not equal to itself (NaN cannot be ordered)")
 
 

@@ -51,6 +51,7 @@ from heapkit._core import (
     HeapBase,
     empty_error,
     nan_error,
+    nan_inside,
     upward_error,
 )
 from heapkit.kinds import dary_checks as _dc
@@ -91,6 +92,7 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
     __slots__ = ("_a", "_d")
 
     KIND: ClassVar[str] = "dary"
+    _NODE: ClassVar[type[Any]] = _Slot
     BOUNDS: ClassVar[str] = "worst-case: push, decrease_key O(log_d n); pop, remove, change_key O(d log_d n); peek O(1)"
     WORST_CASE: ClassVar[bool] = True
     DEFAULT_ARITY: ClassVar[int] = 4
@@ -212,7 +214,7 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
         >>> DaryHeap().push(3, 'c').key
         3
         """
-        if key != key:
+        if key != key or (isinstance(key, tuple) and nan_inside(key)):
             raise nan_error("push", key)
         w = self._wrap
         k = key if w is None else w(key, None)
@@ -289,7 +291,7 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
         # Preamble inline, not HeapBase._new_order: a call is ~50 ns, 5% of a pairing decrease_key (measured).
         if type(x) is not _Slot or x._tok is not self._tok:
             self._claim(x, "decrease_key")
-        if key != key:
+        if key != key or (isinstance(key, tuple) and nan_inside(key)):
             raise nan_error("decrease_key", key)
         w = self._wrap
         k = key if w is None else w(key, x._k)
@@ -328,7 +330,7 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
         # Preamble inline, not HeapBase._new_order: a call is ~50 ns, 5% of a pairing decrease_key (measured).
         if type(x) is not _Slot or x._tok is not self._tok:
             self._claim(x, "change_key")
-        if key != key:
+        if key != key or (isinstance(key, tuple) and nan_inside(key)):
             raise nan_error("change_key", key)
         w = self._wrap
         k = key if w is None else w(key, x._k)
@@ -383,7 +385,7 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
         tok = self._tok
         a = self._a
         for key, value in pairs:
-            if key != key:
+            if key != key or (isinstance(key, tuple) and nan_inside(key)):
                 raise nan_error("extend", key)
             x = _Slot(key, key if w is None else w(key, None), value, tok)
             x._i = len(a)

@@ -41,7 +41,7 @@ from __future__ import annotations
 from collections.abc import Callable, Iterable, Iterator
 from typing import Any, ClassVar, Generic, TypeVar
 
-from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, upward_error
+from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, nan_inside, upward_error
 from heapkit.kinds import _fibonacci_shape as _rules
 from heapkit.kinds._fibonacci_shape import max_degree_bound, ring
 from heapkit.protocol import Handle
@@ -112,7 +112,7 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
         >>> h.push(3, 'c').key
         3
         """
-        if key != key:
+        if key != key or (isinstance(key, tuple) and nan_inside(key)):
             raise nan_error("push", key)
         w = self._wrap
         k = key if w is None else w(key, None)
@@ -452,6 +452,7 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
 
     # Checked mode and to_dot hooks (see _fibonacci_shape.py and the SPI in _core.py).
     _touched, _survey_local, _dot_edges = _rules.touched, _rules.survey_local, _rules.dot_edges
+    _layout_problem = _rules.layout_problem
 
     # --- audit -------------------------------------------------------------
     def _phi(self) -> float:

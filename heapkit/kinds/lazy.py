@@ -53,11 +53,13 @@ from typing import Any, ClassVar, Generic, TypeVar
 
 from heapkit._core import (
     WRAPPERS,
+    HandleBase,
     HeapBase,
     Owner,
     Stable,
     empty_error,
     nan_error,
+    nan_inside,
     owner_root,
     upward_error,
 )
@@ -74,7 +76,9 @@ from heapkit.kinds._lazy_entries import (
     _user_key,
     dot_edges,
     flatten,
+    layout_problem,
     rebuild,
+    slot_path,
 )
 from heapkit.protocol import Handle
 
@@ -138,6 +142,8 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
     def _claim(self, h: Any, op: str) -> Any:
         """Slow path of the ownership check: the handle's entry, or raise."""
         if not isinstance(h, _Handle):
+            if isinstance(h, HandleBase):
+                raise InvalidHandleError(f"{op}: handle {h!r} belongs to a heap of another kind")
             raise TypeError(f"{op}: expected a handle returned by push, got {h!r}")
         e = h._e
         if type(e) is not tuple:
@@ -155,7 +161,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
         >>> LazyHeap().push(3, 'c').key
         3
         """
-        if key != key:
+        if key != key or (isinstance(key, tuple) and nan_inside(key)):
             raise nan_error("push", key)
         w = self._wrap
         k = key if w is None and type(key) in _RAW else _Ord(key) if w is None else w(key, None)
@@ -181,6 +187,8 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
         """
         if not self._n:
             raise empty_error("peek")
+        if self._stale >= self._n:
+            self._compact()  # as pop would: a compaction may reorder tied entries
         a = self._a
         while True:
             e = a[0]
@@ -236,7 +244,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
         e = x._e if type(x) is _Handle else None
         if type(e) is not tuple or e[2] is not self._tok:
             e = self._claim(x, "decrease_key")
-        if key != key:
+        if key != key or (isinstance(key, tuple) and nan_inside(key)):
             raise nan_error("decrease_key", key)
         w = self._wrap
         k = key if w is None and type(key) in _RAW else _Ord(key) if w is None else w(key, e[0])
@@ -255,7 +263,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
         e = x._e if type(x) is _Handle else None
         if type(e) is not tuple or e[2] is not self._tok:
             e = self._claim(x, "change_key")
-        if key != key:
+        if key != key or (isinstance(key, tuple) and nan_inside(key)):
             raise nan_error("change_key", key)
         w = self._wrap
         k = key if w is None and type(key) in _RAW else _Ord(key) if w is None else w(key, e[0])
@@ -312,7 +320,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
         handles: list[Any] = []
         b: list[Any] = []
         for key, value in pairs:
-            if key != key:
+            if key != key or (isinstance(key, tuple) and nan_inside(key)):
                 raise nan_error("extend", key)
             h = _fresh(_order(key) if w is None else w(key, None), value)
             handles.append(h)
@@ -374,8 +382,11 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
     def _import(self, handles: list[Any], layout: list[Any]) -> None:
         self._a, self._stale = rebuild(handles, layout, self._tok, self._wrap)
 
+    _NODE: ClassVar[type[Any]] = _Handle
+    _layout_problem = layout_problem
+
     def __setstate__(self, state: tuple[list[Any], Any]) -> None:
-        handles, layout = state
+        handles, layout = self._validate(state, _Handle)
         self._import(handles, layout)
         self._n = len(handles)
 
@@ -403,15 +414,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
             self._map_order(lambda o, key: _normal(o))
 
     # --- check and audit -----------------------------------------------------
-    @staticmethod
-    def _path(i: int) -> list[str]:
-        steps: list[str] = []
-        while i > 0:
-            steps.append(f"child {(i - 1) & 1}")
-            i = (i - 1) >> 1
-        steps.append("root")
-        steps.reverse()
-        return steps
+    _path = staticmethod(slot_path)
 
     def _survey(self, report: Any) -> dict[str, Any]:
         a = self._a

@@ -42,6 +42,7 @@ from heapkit._core import (
     HeapBase,
     empty_error,
     nan_error,
+    nan_inside,
     seen_path,
     upward_error,
 )
@@ -87,6 +88,7 @@ class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
     __slots__ = ("_root",)
 
     KIND: ClassVar[str] = "pairing"
+    _NODE: ClassVar[type[Any]] = _Node
     BOUNDS: ClassVar[str] = "push, meld, peek O(1) worst-case; pop, remove, decrease_key, change_key O(log n) amortized"
     RULES: ClassVar[dict[str, str]] = {
         "heap-order": "no child is smaller than its parent",
@@ -112,7 +114,7 @@ class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
         >>> h.push(3, 'c').key
         3
         """
-        if key != key:
+        if key != key or (isinstance(key, tuple) and nan_inside(key)):
             raise nan_error("push", key)
         w = self._wrap
         k = key if w is None else w(key, None)
@@ -180,7 +182,7 @@ class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
         # Preamble inline, not HeapBase._new_order: a call is ~50 ns, 5% of a pairing decrease_key (measured).
         if type(x) is not _Node or x._tok is not self._tok:
             self._claim(x, "decrease_key")
-        if key != key:
+        if key != key or (isinstance(key, tuple) and nan_inside(key)):
             raise nan_error("decrease_key", key)
         w = self._wrap
         k = key if w is None else w(key, x._k)
@@ -229,7 +231,7 @@ class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
         # Preamble inline, not HeapBase._new_order: a call is ~50 ns, 5% of a pairing decrease_key (measured).
         if type(x) is not _Node or x._tok is not self._tok:
             self._claim(x, "change_key")
-        if key != key:
+        if key != key or (isinstance(key, tuple) and nan_inside(key)):
             raise nan_error("change_key", key)
         w = self._wrap
         k = key if w is None else w(key, x._k)
@@ -371,6 +373,7 @@ class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
 
     # Checked mode and to_dot hooks (see pairing_checks.py and the SPI in _core.py).
     _touched, _survey_local, _dot_edges = _pc.touched, _pc.survey_local, _pc.dot_edges
+    _layout_problem = _pc.layout_problem
 
     def _map_order(self, fn: Callable[[Any, Any], Any]) -> None:
         for x in self._handles():

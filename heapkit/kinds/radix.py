@@ -50,6 +50,7 @@ from typing import Any, ClassVar, Generic, TypeVar
 
 from heapkit._core import HandleBase, HeapBase, empty_error, upward_error
 from heapkit.errors import KeyOrderError
+from heapkit.kinds._layout import bucket_problem
 from heapkit.protocol import Handle
 
 __all__ = ["RadixHeap"]
@@ -74,11 +75,20 @@ class _Item(HandleBase[K, V]):
         self._i = 0
 
 
+#: Keys are below ``2 ** MAX_BITS``: at most ``MAX_BITS + 1`` buckets ever exist.
+MAX_BITS = 4096
+
+
 def _key_error(op: str, key: object, last: int) -> KeyOrderError:
     if isinstance(key, bool) or not isinstance(key, int):
         why = f"is a {type(key).__name__}"
     elif key < 0:
         why = "is negative"
+    elif key >= last:
+        return KeyOrderError(
+            f"{op}: key of {key.bit_length()} bits is too large: radix heap keys are below "
+            f"2**{MAX_BITS}"
+        )
     else:
         why = "is too low"
     return KeyOrderError(
@@ -104,6 +114,7 @@ class RadixHeap(HeapBase[int, V], Generic[V]):
     __slots__ = ("_buckets", "_last")
 
     KIND: ClassVar[str] = "radix"
+    _NODE: ClassVar[type[Any]] = _Item
     BOUNDS: ClassVar[str] = "monotone int keys; push, decrease_key, remove O(1); pop O(log C) amortized"
     #: Takes only monotone non-negative int keys (the benchmark and tools select by this).
     MONOTONE: ClassVar[bool] = True
@@ -138,7 +149,7 @@ class RadixHeap(HeapBase[int, V], Generic[V]):
         """
         return self._last
 
-    # Precondition: x is not in any bucket.  Restores: x is at the end of bucket b.
+    # Precondition: x is not in any bucket, b <= MAX_BITS.  Restores: x is at the end of bucket b.
     def _put(self, x: Any, b: int) -> None:
         buckets = self._buckets
         while b >= len(buckets):
@@ -180,6 +191,8 @@ class RadixHeap(HeapBase[int, V], Generic[V]):
             bl = buckets[b]
             x._i = len(bl)
             bl.append(x)
+        elif b > MAX_BITS:
+            raise _key_error("push", key, last)
         else:
             self._put(x, b)
         self._n += 1
@@ -200,10 +213,15 @@ class RadixHeap(HeapBase[int, V], Generic[V]):
         last = m._key
         self._last = last
         for x in src:
-            bl = buckets[(x._key ^ last).bit_length()]
-            x._i = len(bl)
-            bl.append(x)
+            if x is not m:
+                bl = buckets[(x._key ^ last).bit_length()]
+                x._i = len(bl)
+                bl.append(x)
+        m._i = len(b0)
+        b0.append(m)  # last in bucket 0: pop takes the entry peek named
         src.clear()
+        while not buckets[-1] and len(buckets) > 1:  # each bucket trimmed once per append
+            buckets.pop()
         return b0
 
     def peek(self) -> _Item[int, V]:
@@ -292,6 +310,8 @@ class RadixHeap(HeapBase[int, V], Generic[V]):
         w = self._wrap
         k = key if w is None else w(key, x._k)
         b = (key ^ last).bit_length()
+        if b > MAX_BITS:
+            raise _key_error("change_key", key, last)
         if b != (x._key ^ last).bit_length():
             self._take(x)
             self._put(x, b)
@@ -345,6 +365,9 @@ class RadixHeap(HeapBase[int, V], Generic[V]):
     def _export(self) -> tuple[list[Any], tuple[int, list[int]]]:
         out = [x for bl in self._buckets for x in bl]
         return out, (self._last, [len(bl) for bl in self._buckets])
+
+    def _layout_problem(self, handles: list[Any], layout: Any) -> str | None:
+        return bucket_problem(handles, layout, MAX_BITS)
 
     def _import(self, handles: list[Any], layout: tuple[int, list[int]]) -> None:
         last, sizes = layout

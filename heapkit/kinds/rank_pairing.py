@@ -60,12 +60,13 @@ import math
 from collections.abc import Callable, Iterable, Iterator
 from typing import Any, ClassVar, Generic, TypeVar
 
-from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, upward_error
+from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, nan_inside, upward_error
 from heapkit.kinds._rank_pairing_cuts import cut, enlist, ring, spill, unspine
 from heapkit.kinds._rank_pairing_rules import (
     dot_edges,
     export_trees,
     import_trees,
+    layout_problem,
     nodes_of,
     roots_of,
     survey,
@@ -151,7 +152,7 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
         >>> h.push(3, 'c').key
         3
         """
-        if key != key:
+        if key != key or (isinstance(key, tuple) and nan_inside(key)):
             raise nan_error("push", key)
         w = self._wrap
         k = key if w is None else w(key, None)
@@ -238,6 +239,7 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
                 if c is not None:
                     c._up = t
                 t._up = u
+                t._next = t._prev = None  # no longer a root: drop its root-list links
                 u._left = t
                 u._rank = r + 1
                 links += 1
@@ -455,6 +457,7 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
         survey_local(self, report, touched)
 
     _dot_edges = dot_edges  # to_dot hook (see _rank_pairing_rules.py and the SPI in _core.py)
+    _layout_problem = layout_problem
 
     # --- audit -------------------------------------------------------------
     def _phi(self) -> float:
