@@ -303,13 +303,7 @@ class HeapBase(Generic[K, V]):
         """
         tok = getattr(h, "_tok", None)
         if not isinstance(tok, Owner):
-            if tok is None and isinstance(h, HandleBase | LeafHandle) and h.alive:  # type: ignore[union-attr]
-                raise InvalidHandleError(f"{op}: handle {h!r} belongs to a heap of another kind")
-            if tok is None and isinstance(h, HandleBase | LeafHandle):
-                raise InvalidHandleError(
-                    f"{op}: handle {h!r} is dead (its entry was popped, removed or cleared)"
-                )
-            raise TypeError(f"{op}: expected a handle returned by push, got {h!r}")
+            raise foreign_error(op, h)
         if owner_root(tok) is not self._tok:
             raise InvalidHandleError(f"{op}: handle {h!r} belongs to another heap")
         h._tok = self._tok
@@ -475,6 +469,19 @@ class LeafHandle(Generic[K, V]):
     """Base of handles that are not the kind's node (they point at it)."""
 
     __slots__ = ()
+
+
+def foreign_error(op: str, h: Any) -> Exception:
+    """The error for ``h`` given to a kind whose handles it is not: a dead handle, a live
+    handle of another kind (both :class:`InvalidHandleError`), or not a handle (TypeError)."""
+    if isinstance(h, HandleBase | LeafHandle):
+        if h.alive:  # type: ignore[union-attr]
+            return InvalidHandleError(f"{op}: handle {h!r} belongs to a heap of another kind")
+        if isinstance(h, LeafHandle) or h._tok is None:
+            return InvalidHandleError(
+                f"{op}: handle {h!r} is dead (its entry was popped, removed or cleared)"
+            )
+    return TypeError(f"{op}: expected a handle returned by push, got {h!r}")
 
 
 def _restore(cls: type[Any], stable: bool, options: dict[str, object]) -> Any:

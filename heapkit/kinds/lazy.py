@@ -53,11 +53,11 @@ from typing import Any, ClassVar, Generic, TypeVar
 
 from heapkit._core import (
     WRAPPERS,
-    HandleBase,
     HeapBase,
     Owner,
     Stable,
     empty_error,
+    foreign_error,
     nan_error,
     nan_inside,
     owner_root,
@@ -142,9 +142,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
     def _claim(self, h: Any, op: str) -> Any:
         """Slow path of the ownership check: the handle's entry, or raise."""
         if not isinstance(h, _Handle):
-            if isinstance(h, HandleBase):
-                raise InvalidHandleError(f"{op}: handle {h!r} belongs to a heap of another kind")
-            raise TypeError(f"{op}: expected a handle returned by push, got {h!r}")
+            raise foreign_error(op, h)
         e = h._e
         if type(e) is not tuple:
             raise InvalidHandleError(
@@ -382,7 +380,6 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
     def _import(self, handles: list[Any], layout: list[Any]) -> None:
         self._a, self._stale = rebuild(handles, layout, self._tok, self._wrap)
 
-    _NODE: ClassVar[type[Any]] = _Handle
     _layout_problem = layout_problem
 
     def __setstate__(self, state: tuple[list[Any], Any]) -> None:
