@@ -14,7 +14,9 @@ A kind subclasses :class:`HeapBase` and keeps, in its own module, beside its cod
   handles);
 * ``_handles()``: every live handle, iteratively;
 * ``_export() -> (handles, layout)`` and ``_import(handles, layout)``: the exact
-  shape as flat data (no recursion), for copy, deepcopy and pickle;
+  shape as flat data (no recursion), for copy, deepcopy and pickle; ``_NODE`` (the
+  handle class) and ``_layout_problem(handles, layout)`` (what is wrong with such
+  data, or None; no key compared), which ``_validate`` runs before ``_import``;
 * ``_map_order(fn)``: replace every stored ordering object ``o`` of a handle
   ``h`` by ``fn(o, h.key)`` without comparing anything (the auditor uses it);
 * ``_survey(report) -> dict``: check every rule in ``RULES`` in O(n),
