@@ -70,7 +70,6 @@ from heapkit._order import stable_wrap as stable_wrap
 from heapkit.errors import InvalidHandleError
 from heapkit.errors import empty_error as empty_error
 from heapkit.errors import nan_error as nan_error
-from heapkit.errors import nan_inside as nan_inside
 from heapkit.errors import upward_error as upward_error
 from heapkit.protocol import Heap
 
@@ -247,7 +246,7 @@ class HeapBase(Generic[K, V]):
         ordering object.  Fibonacci, binomial, rank-pairing, hollow; the hot kinds inline it."""
         if type(h) is not self._NODE or h._tok is not self._tok:
             self._claim(h, op)
-        if key != key or (isinstance(key, tuple) and nan_inside(key)):
+        if key != key:
             raise nan_error(op, key)
         w = self._wrap
         return key if w is None else w(key, h._k)

@@ -6,6 +6,8 @@ Every class subclasses a builtin as well as :class:`HeapError`, so existing
 
 from __future__ import annotations
 
+from collections.abc import Iterable
+
 __all__ = [
     "BoundExceededError",
     "EmptyHeapError",
@@ -68,6 +70,29 @@ def nan_inside(key: object) -> bool:
             elif x != x:
                 return True
     return False
+
+
+def refuse_nan(op: str, key: object) -> None:
+    """Checked mode's key test: raise :class:`KeyOrderError` if ``key`` is or holds NaN
+    (bare heaps test only ``key != key``).  O(size of the key).
+
+    >>> refuse_nan("push", (1, 2.5))
+    """
+    if nan_inside(key):
+        raise nan_error(op, key)
+
+
+def refuse_nan_pairs(op: str, pairs: Iterable[object]) -> list[object]:
+    """The pairs as a list, after :func:`refuse_nan` on each pair's key.  O(total key size).
+
+    >>> refuse_nan_pairs("extend", iter([(1, 'a')]))
+    [(1, 'a')]
+    """
+    out = list(pairs)
+    for p in out:
+        if isinstance(p, tuple | list) and p:
+            refuse_nan(op, p[0])
+    return out
 
 
 # --- the messages kinds raise (``heapkit._core`` re-exports them) ---------------

@@ -23,7 +23,7 @@ from __future__ import annotations
 
 from typing import Any, ClassVar, TypeVar
 
-from heapkit._core import empty_error, nan_error, nan_inside, upward_error
+from heapkit._core import empty_error, nan_error, upward_error
 from heapkit.kinds.dary import DaryHeap, _Slot
 from heapkit.protocol import Handle
 
@@ -59,7 +59,7 @@ class BinaryHeap(DaryHeap[K, V]):
         """
         if self._d != 2:
             return super().push(key, value)
-        if key != key or (isinstance(key, tuple) and nan_inside(key)):
+        if key != key:
             raise nan_error("push", key)
         w = self._wrap
         k = key if w is None else w(key, None)
@@ -163,7 +163,7 @@ class BinaryHeap(DaryHeap[K, V]):
         # Preamble inline, not HeapBase._new_order: a call is ~50 ns, 5% of a pairing decrease_key (measured).
         if type(x) is not _Slot or x._tok is not self._tok:
             self._claim(x, "decrease_key")
-        if key != key or (isinstance(key, tuple) and nan_inside(key)):
+        if key != key:
             raise nan_error("decrease_key", key)
         w = self._wrap
         k = key if w is None else w(key, x._k)

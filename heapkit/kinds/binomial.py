@@ -55,7 +55,7 @@ from __future__ import annotations
 from collections.abc import Callable, Iterable, Iterator
 from typing import Any, ClassVar, Generic, TypeVar
 
-from heapkit._core import HeapBase, empty_error, nan_error, nan_inside, upward_error
+from heapkit._core import HeapBase, empty_error, nan_error, upward_error
 from heapkit.kinds.binomial_forest import _ancestors, _apply, _Node, _plan, _plan_push, _scan
 from heapkit.kinds.binomial_rules import BinomialRules
 from heapkit.protocol import Handle
@@ -104,7 +104,7 @@ class BinomialHeap(BinomialRules, HeapBase[K, V], Generic[K, V]):
         >>> h.push(3, 'c').key
         3
         """
-        if key != key or (isinstance(key, tuple) and nan_inside(key)):
+        if key != key:
             raise nan_error("push", key)
         w = self._wrap
         k = key if w is None else w(key, None)

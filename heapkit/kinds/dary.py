@@ -51,7 +51,6 @@ from heapkit._core import (
     HeapBase,
     empty_error,
     nan_error,
-    nan_inside,
     upward_error,
 )
 from heapkit.kinds import dary_checks as _dc
@@ -214,7 +213,7 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
         >>> DaryHeap().push(3, 'c').key
         3
         """
-        if key != key or (isinstance(key, tuple) and nan_inside(key)):
+        if key != key:
             raise nan_error("push", key)
         w = self._wrap
         k = key if w is None else w(key, None)
@@ -291,7 +290,7 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
         # Preamble inline, not HeapBase._new_order: a call is ~50 ns, 5% of a pairing decrease_key (measured).
         if type(x) is not _Slot or x._tok is not self._tok:
             self._claim(x, "decrease_key")
-        if key != key or (isinstance(key, tuple) and nan_inside(key)):
+        if key != key:
             raise nan_error("decrease_key", key)
         w = self._wrap
         k = key if w is None else w(key, x._k)
@@ -330,7 +329,7 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
         # Preamble inline, not HeapBase._new_order: a call is ~50 ns, 5% of a pairing decrease_key (measured).
         if type(x) is not _Slot or x._tok is not self._tok:
             self._claim(x, "change_key")
-        if key != key or (isinstance(key, tuple) and nan_inside(key)):
+        if key != key:
             raise nan_error("change_key", key)
         w = self._wrap
         k = key if w is None else w(key, x._k)
@@ -385,7 +384,7 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
         tok = self._tok
         a = self._a
         for key, value in pairs:
-            if key != key or (isinstance(key, tuple) and nan_inside(key)):
+            if key != key:
                 raise nan_error("extend", key)
             x = _Slot(key, key if w is None else w(key, None), value, tok)
             x._i = len(a)

@@ -41,7 +41,7 @@ from __future__ import annotations
 from collections.abc import Callable, Iterable, Iterator
 from typing import Any, ClassVar, Generic, TypeVar
 
-from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, nan_inside, upward_error
+from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, upward_error
 from heapkit.kinds import _fibonacci_shape as _rules
 from heapkit.kinds._fibonacci_shape import max_degree_bound, ring
 from heapkit.protocol import Handle
@@ -112,7 +112,7 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
         >>> h.push(3, 'c').key
         3
         """
-        if key != key or (isinstance(key, tuple) and nan_inside(key)):
+        if key != key:
             raise nan_error("push", key)
         w = self._wrap
         k = key if w is None else w(key, None)

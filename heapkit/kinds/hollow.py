@@ -53,7 +53,7 @@ from __future__ import annotations
 from collections.abc import Callable, Iterable, Iterator
 from typing import Any, ClassVar, Generic, TypeVar
 
-from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, nan_inside, upward_error
+from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, upward_error
 from heapkit.kinds._hollow_dag import Node, children, delete_root, max_rank, survey, survey_local
 from heapkit.protocol import Handle
 
@@ -121,7 +121,7 @@ class HollowHeap(HeapBase[K, V], Generic[K, V]):
         >>> HollowHeap().push(3, 'c').key
         3
         """
-        if key != key or (isinstance(key, tuple) and nan_inside(key)):
+        if key != key:
             raise nan_error("push", key)
         w = self._wrap
         k = key if w is None else w(key, None)

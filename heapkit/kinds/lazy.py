@@ -59,7 +59,6 @@ from heapkit._core import (
     empty_error,
     foreign_error,
     nan_error,
-    nan_inside,
     owner_root,
     upward_error,
 )
@@ -159,7 +158,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
         >>> LazyHeap().push(3, 'c').key
         3
         """
-        if key != key or (isinstance(key, tuple) and nan_inside(key)):
+        if key != key:
             raise nan_error("push", key)
         w = self._wrap
         k = key if w is None and type(key) in _RAW else _Ord(key) if w is None else w(key, None)
@@ -242,7 +241,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
         e = x._e if type(x) is _Handle else None
         if type(e) is not tuple or e[2] is not self._tok:
             e = self._claim(x, "decrease_key")
-        if key != key or (isinstance(key, tuple) and nan_inside(key)):
+        if key != key:
             raise nan_error("decrease_key", key)
         w = self._wrap
         k = key if w is None and type(key) in _RAW else _Ord(key) if w is None else w(key, e[0])
@@ -261,7 +260,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
         e = x._e if type(x) is _Handle else None
         if type(e) is not tuple or e[2] is not self._tok:
             e = self._claim(x, "change_key")
-        if key != key or (isinstance(key, tuple) and nan_inside(key)):
+        if key != key:
             raise nan_error("change_key", key)
         w = self._wrap
         k = key if w is None and type(key) in _RAW else _Ord(key) if w is None else w(key, e[0])
@@ -318,7 +317,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
         handles: list[Any] = []
         b: list[Any] = []
         for key, value in pairs:
-            if key != key or (isinstance(key, tuple) and nan_inside(key)):
+            if key != key:
                 raise nan_error("extend", key)
             h = _fresh(_order(key) if w is None else w(key, None), value)
             handles.append(h)

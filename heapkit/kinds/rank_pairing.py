@@ -60,7 +60,7 @@ import math
 from collections.abc import Callable, Iterable, Iterator
 from typing import Any, ClassVar, Generic, TypeVar
 
-from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, nan_inside, upward_error
+from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, upward_error
 from heapkit.kinds._rank_pairing_cuts import cut, enlist, ring, spill, unspine
 from heapkit.kinds._rank_pairing_rules import (
     dot_edges,
@@ -152,7 +152,7 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
         >>> h.push(3, 'c').key
         3
         """
-        if key != key or (isinstance(key, tuple) and nan_inside(key)):
+        if key != key:
             raise nan_error("push", key)
         w = self._wrap
         k = key if w is None else w(key, None)
