@@ -19,7 +19,10 @@ and with ``L := m`` every other key of that bucket lands in a lower bucket.
 Bounds
 ------
 push, remove, decrease_key, change_key: O(1) worst-case (a swap-remove and an
-append).  pop: O(log C) amortized where ``C`` bounds ``key - L``; peek: O(s)
+append), keys below ``2 ** MAX_BITS`` (4096): a push or change_key that opens a new
+highest bucket first appends the empty buckets below it (at most ``MAX_BITS + 1`` ever
+exist; pop trims empty top buckets, each once per append).
+pop: O(log C) amortized where ``C`` bounds ``key - L``; peek: O(s)
 worst-case for the s entries of the first non-empty bucket (it moves nothing).  meld: O(m) for the m
 entries moved.  Dijkstra with integer weights up to C: O(m + n log C).
 ``stable=True`` adds a scan of bucket 0 to pop: O(t) for the t entries tied
