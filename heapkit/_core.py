@@ -14,7 +14,9 @@ A kind subclasses :class:`HeapBase` and keeps, in its own module, beside its cod
   handles);
 * ``_handles()``: every live handle, iteratively;
 * ``_export() -> (handles, layout)`` and ``_import(handles, layout)``: the exact
-  shape as flat data (no recursion), for copy, deepcopy and pickle;
+  shape as flat data (no recursion), for copy, deepcopy and pickle; ``_NODE`` (the
+  handle class) and ``_layout_problem(handles, layout)`` (what is wrong with such
+  data, or None; no key compared), which ``_validate`` runs before ``_import``;
 * ``_map_order(fn)``: replace every stored ordering object ``o`` of a handle
   ``h`` by ``fn(o, h.key)`` without comparing anything (the auditor uses it);
 * ``_survey(report) -> dict``: check every rule in ``RULES`` in O(n),
@@ -56,11 +58,15 @@ live handles and every rule intact.
 
 from __future__ import annotations
 
-import itertools
 import threading
 from collections.abc import Callable, Iterable, Iterator
 from typing import TYPE_CHECKING, Any, ClassVar, Generic, TypeVar
 
+from heapkit._order import WRAPPERS as WRAPPERS
+from heapkit._order import Stable as Stable
+from heapkit._order import seq_after
+from heapkit._order import seq_of as seq_of
+from heapkit._order import stable_wrap as stable_wrap
 from heapkit.errors import InvalidHandleError
 from heapkit.errors import empty_error as empty_error
 from heapkit.errors import nan_error as nan_error
@@ -75,63 +81,10 @@ V = TypeVar("V")
 
 Wrap = Callable[[Any, Any], Any]
 
-#: Push order within the process, shared by every stable heap so that order
-#: survives meld.  ``next()`` on a count is atomic under the GIL.
-_SEQ = itertools.count()
-
 #: Called with every heap constructed while ``HEAPKIT_DEBUG`` asks for it, except the
 #: heaps heapkit builds for its own use (``_spawn``, flagged in ``_internal``).
 _internal = threading.local()
 on_new: Callable[[HeapBase[Any, Any]], None] | None = None
-
-#: Wrapper types that carry an ``inner`` ordering object (the auditor adds its own).
-WRAPPERS: set[type] = set()
-
-
-class Stable:
-    """Ordering object of a stable heap: ``(key, push order)`` compared with one ``<``.
-
-    If ``a`` was pushed first, ``a`` comes first unless ``b.key < a.key``;
-    otherwise ``b`` comes first unless ``a.key < b.key``.  Never equal to
-    anything, so a tuple holding it compares no further.
-    """
-
-    __slots__ = ("key", "seq")
-
-    def __init__(self, key: Any, seq: int) -> None:
-        self.key = key
-        self.seq = seq
-
-    def __lt__(self, other: Stable) -> bool:
-        if self.seq < other.seq:
-            return not other.key < self.key
-        return bool(self.key < other.key)
-
-    def __eq__(self, other: object) -> bool:
-        return False
-
-    __hash__ = None  # type: ignore[assignment]
-
-    def __repr__(self) -> str:
-        return f"{self.key!r}#{self.seq}"
-
-
-def stable_wrap(key: Any, old: Any) -> Stable:
-    """Make the :class:`Stable` ordering object of ``key`` (keeping ``old``'s push order)."""
-    seq = None if old is None else seq_of(old)
-    return Stable(key, next(_SEQ) if seq is None else seq)
-
-
-def seq_of(o: Any) -> int | None:
-    """The push order inside an ordering object, or None where it has none."""
-    while True:
-        t = type(o)
-        if t is Stable:
-            return int(o.seq)
-        if t not in WRAPPERS:
-            return None
-        o = o.inner
-
 
 class Owner:
     """Ownership token.  A heap holds one; a handle points at its heap's token.
@@ -250,12 +203,20 @@ class HeapBase(Generic[K, V]):
         """Constructor options besides ``stable`` (they must match for ``meld``)."""
         return {}
 
-    def _family(self) -> type:
-        """The class whose structure this heap has (checked/audited modes share it)."""
+    def _kind_class(self) -> type:
+        """The kind's own class under any mode subclass (what a copy or pickle rebuilds)."""
         for c in type(self).__mro__:
             if "KIND" in c.__dict__:
                 return c
         return type(self)  # pragma: no cover - every kind sets KIND
+
+    def _family(self) -> type:
+        """The class whose structure this heap has (checked/audited modes share it)."""
+        return self._kind_class()
+
+    def _layout_problem(self, handles: list[Any], layout: Any) -> str | None:
+        """What is wrong with ``_export`` data for this kind, without comparing keys, or None."""
+        return None if layout is None else f"expected no layout, got {layout!r:.80}"
 
     def _meld_from(self, other: Self) -> None:
         raise NotImplementedError
@@ -343,11 +304,7 @@ class HeapBase(Generic[K, V]):
         """
         tok = getattr(h, "_tok", None)
         if not isinstance(tok, Owner):
-            if tok is None and isinstance(h, HandleBase | LeafHandle):
-                raise InvalidHandleError(
-                    f"{op}: handle {h!r} is dead (its entry was popped, removed or cleared)"
-                )
-            raise TypeError(f"{op}: expected a handle returned by push, got {h!r}")
+            raise foreign_error(op, h)
         if owner_root(tok) is not self._tok:
             raise InvalidHandleError(f"{op}: handle {h!r} belongs to another heap")
         h._tok = self._tok
@@ -463,10 +420,37 @@ class HeapBase(Generic[K, V]):
     # --- copy and pickle: flat data, never recursion --------------------------
     def __reduce__(self) -> tuple[Any, ...]:
         handles, layout = self._export()
-        return (_restore, (self._family(), self._stable, self._options()), (handles, layout))
+        return (_restore, (self._kind_class(), self._stable, self._options()), (handles, layout))
+
+    def _validate(self, state: Any, node: type) -> tuple[list[Any], Any]:
+        """Refuse ``__setstate__`` data that would load a heap ``check`` rejects: handles of
+        another class or repeated, a layout whose counts or links disagree (no key is
+        compared: O(n)).  A stable heap's later pushes come after every loaded entry."""
+        name = type(self).__name__
+        if type(state) is not tuple or len(state) != 2 or type(state[0]) is not list:
+            raise ValueError(f"load {name}: expected (handles, layout), got {state!r:.80}")
+        handles, layout = state
+        seen: set[int] = set()
+        top = -1
+        h: Any
+        for h in handles:
+            if type(h) is not node or id(h) in seen:
+                what = "repeated" if id(h) in seen else f"not a {node.__name__}"
+                raise ValueError(f"load {name}: handle {h!r:.80} is {what}")
+            seen.add(id(h))
+            if self._stable:
+                seq = seq_of(h._k if isinstance(h, HandleBase) else getattr(h, "_e", None))
+                if seq is None:
+                    raise ValueError(f"load {name}: handle {h!r:.80} has no push order")
+                top = max(top, seq)
+        why = self._layout_problem(handles, layout)
+        if why is not None:
+            raise ValueError(f"load {name}: {why}")
+        seq_after(top)
+        return handles, layout
 
     def __setstate__(self, state: tuple[list[Any], Any]) -> None:
-        handles, layout = state
+        handles, layout = self._validate(state, self._NODE)
         tok = self._tok
         for h in handles:
             h._tok = tok
@@ -476,7 +460,7 @@ class HeapBase(Generic[K, V]):
     def __copy__(self) -> Self:
         """A new heap with the same entries (keys and values shared) and new handles."""
         handles, layout = self._export()
-        new = _restore(self._family(), self._stable, self._options())
+        new = _restore(self._kind_class(), self._stable, self._options())
         fresh = [type(h)(h._key, h._k, h.value, None) for h in handles]
         new.__setstate__((fresh, layout))
         return new  # type: ignore[no-any-return]
@@ -486,6 +470,19 @@ class LeafHandle(Generic[K, V]):
     """Base of handles that are not the kind's node (they point at it)."""
 
     __slots__ = ()
+
+
+def foreign_error(op: str, h: Any) -> Exception:
+    """The error for ``h`` given to a kind whose handles it is not: a dead handle, a live
+    handle of another kind (both :class:`InvalidHandleError`), or not a handle (TypeError)."""
+    if isinstance(h, HandleBase | LeafHandle):
+        if h.alive:  # type: ignore[union-attr]
+            return InvalidHandleError(f"{op}: handle {h!r} belongs to a heap of another kind")
+        if isinstance(h, LeafHandle) or h._tok is None:
+            return InvalidHandleError(
+                f"{op}: handle {h!r} is dead (its entry was popped, removed or cleared)"
+            )
+    return TypeError(f"{op}: expected a handle returned by push, got {h!r}")
 
 
 def _restore(cls: type[Any], stable: bool, options: dict[str, object]) -> Any:

@@ -406,7 +406,7 @@ def test_copy_of_an_audited_heap_is_plain() -> None:
     with audit(h):
         c = copy.copy(h)
         d = copy.deepcopy(h)
-    assert type(c) is heapkit.DaryHeap and bare(c) and bare(d)
+    assert type(c) is heapkit.BinaryHeap and bare(c) and bare(d)  # its own kind (issue 12)
     assert c.pop() == (1, "a") and d.pop() == (1, "a")
 
 

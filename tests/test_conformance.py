@@ -70,6 +70,11 @@ class ProtocolMachine(RuleBasedStateMachine):
             assert not h.alive
             assert ref.remove(r) == (key, value)
 
+    def _pop_one(self, w: int) -> tuple[Any, Any]:
+        key, value = self.heaps[w].pop()
+        self._popped(w, key, value)
+        return key, value
+
     @rule(w=st.integers(0, 1))
     def pop(self, w: int) -> None:
         heap, ref = self.heaps[w], self.refs[w]
@@ -77,8 +82,18 @@ class ProtocolMachine(RuleBasedStateMachine):
             with pytest.raises(heapkit.EmptyHeapError):
                 heap.pop()
             return
-        key, value = heap.pop()
-        self._popped(w, key, value)
+        self._pop_one(w)
+
+    @rule(w=st.integers(0, 1))
+    def pop_returns_what_peek_named(self, w: int) -> None:
+        # Protocol rule (/work/shared/design/api.md, round 2): with no operation
+        # between them, pop() removes and returns exactly the entry peek() named.
+        if not self.refs[w]:
+            return
+        top = self.heaps[w].peek()
+        named = (top.key, top.value)
+        assert self._pop_one(w) == named, f"peek named {named!r}"
+        assert not top.alive
 
     @rule(w=st.integers(0, 1))
     def peek(self, w: int) -> None:
@@ -206,11 +221,9 @@ class MonotoneMachine(ProtocolMachine):
     def extend(self, w: int, ups: list[int]) -> None:
         ProtocolMachine.extend(self, w, [self.last[w] + u for u in ups])
 
-    @rule(w=st.integers(0, 1))
-    def pop(self, w: int) -> None:
-        if self.refs[w]:
-            self.last[w] = self.refs[w].peek().key
-        ProtocolMachine.pop(self, w)
+    def _pop_one(self, w: int) -> tuple[Any, Any]:
+        self.last[w] = self.refs[w].peek().key
+        return ProtocolMachine._pop_one(self, w)
 
     @precondition(lambda self: self.pairs)
     @rule(data=st.data(), drop=st.integers(0, 6))

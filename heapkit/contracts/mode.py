@@ -27,7 +27,7 @@ from typing import Any, TypeVar
 from heapkit._core import HeapBase
 from heapkit.contracts.history import Entry, HistoryError
 from heapkit.contracts.report import Report, check
-from heapkit.errors import HeapError
+from heapkit.errors import HeapError, refuse_nan, refuse_nan_pairs
 from heapkit.protocol import Heap
 
 __all__ = ["checked", "unchecked"]
@@ -355,6 +355,7 @@ class _Checking:
 
     def push(self, key: Any, value: Any) -> Any:
         sup: Any = super()
+        refuse_nan("push", key)
         st = _begin(self, "push", None)
         if st is None:
             return sup.push(key, value)
@@ -368,6 +369,7 @@ class _Checking:
 
     def extend(self, pairs: Any) -> Any:
         sup: Any = super()
+        pairs = refuse_nan_pairs("extend", pairs)
         st = _begin(self, "extend", None)
         if st is None:
             return sup.extend(pairs)
@@ -407,6 +409,7 @@ class _Checking:
 
     def _rekey(self, op: str, handle: Any, key: Any) -> None:
         run = getattr(super(), op)
+        refuse_nan(op, key)
         st = _begin(self, op, handle, depth=3)
         if st is None:
             run(handle, key)

@@ -14,7 +14,7 @@ from typing import Any
 
 from heapkit._core import HeapBase
 from heapkit.concurrent.guard import Wrapper
-from heapkit.errors import HeapError, InvariantError
+from heapkit.errors import HeapError, InvariantError, nan_inside
 from heapkit.protocol import Shape
 
 __all__ = ["LIMIT", "PROTOCOL_RULES", "Report", "check", "kind_name", "problem_prefix"]
@@ -136,9 +136,18 @@ def check(heap: Any) -> Shape:
         return _check_protocol(heap)
     report = Report()
     figures = report.run(heap._survey)
+    if not report.problems:  # a broken structure may not iterate
+        report.run(_survey_keys, heap)
     if report.problems:
         raise report.error(heap)
     return Shape(kind=kind_name(heap), **figures)
+
+
+def _survey_keys(report: Report, heap: Any) -> None:
+    """Rule "key" of every kind: no key is or holds NaN (push refuses them).  O(size of the keys)."""
+    for h in heap._handles():
+        if nan_inside(h.key):
+            report.fail("key", h, [], "the key is or holds a value not equal to itself (NaN)")
 
 
 def _check_protocol(heap: Any) -> Shape:
@@ -183,8 +192,8 @@ def _survey_protocol(report: Report, heap: Any, n: int) -> bool:
             report.fail("alive", h, [], "iteration gives a dead handle")
         elif member and h not in heap:
             report.fail("alive", h, [], "an iterated handle is not `in` the heap")
-        if _key_of(h) != _key_of(h):
-            report.fail("key", h, [], "the key is not equal to itself (NaN)")
+        if nan_inside(_key_of(h)):
+            report.fail("key", h, [], "the key is or holds a value not equal to itself (NaN)")
     if not handles:
         return True
     top = heap.peek()

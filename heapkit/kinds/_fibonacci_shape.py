@@ -13,6 +13,7 @@ from collections.abc import Iterator
 from typing import Any
 
 from heapkit._core import HandleBase
+from heapkit.kinds._layout import forest_problem
 
 #: ln of the golden ratio, for D(n) = floor(log_phi n).
 _LN_PHI = math.log((1 + math.sqrt(5)) / 2)
@@ -359,3 +360,13 @@ def dot_edges(heap: Any) -> Iterator[tuple[Any, Any, str]]:
         c = x._child
         if c is not None:
             stack.append((x, c, c))
+
+
+def layout_problem(heap: Any, handles: list[Any], layout: Any) -> str | None:
+    """Loading: degrees in preorder make a forest of the handles; one mark each.  O(n)."""
+    if type(layout) is not tuple or len(layout) != 2:
+        return f"expected (degrees, marks), got {layout!r:.80}"
+    degrees, marks = layout
+    if type(marks) is not list or len(marks) != len(handles):
+        return f"expected a list of {len(handles)} marks, got {marks!r:.80}"
+    return forest_problem(degrees, len(handles), False)

@@ -178,6 +178,27 @@ def flatten(a: list[Any]) -> tuple[list[Any], list[Any]]:
     return handles, layout
 
 
+def layout_problem(heap: Any, handles: list[Any], layout: Any) -> str | None:
+    """Loading: one ``None`` slot per handle, at most ``len + 1`` stale slots.  O(n)."""
+    if type(layout) is not list:
+        return f"expected a list of slots, got {layout!r:.80}"
+    live = layout.count(None)
+    if live != len(handles) or len(layout) - live > live + 1:
+        return f"{live} live and {len(layout) - live} stale slots for {len(handles)} handles"
+    return None
+
+
+def slot_path(i: int) -> list[str]:
+    """Steps from the root to slot ``i`` of the list (``child 0``/``child 1``)."""
+    steps: list[str] = []
+    while i > 0:
+        steps.append(f"child {(i - 1) & 1}")
+        i = (i - 1) >> 1
+    steps.append("root")
+    steps.reverse()
+    return steps
+
+
 def rebuild(handles: list[Any], layout: list[Any], tok: Any, wrap: Any) -> tuple[list[Any], int]:
     """The exact list from ``flatten``'s data (handles hold their ordering object
     in ``_e``); stale slots get the ghost handle.  No comparison.  Returns the

@@ -230,6 +230,23 @@ def import_trees(handles: list[Any], codes: list[int]) -> list[Any]:
     return roots
 
 
+def layout_problem(heap: Any, handles: list[Any], layout: Any) -> str | None:
+    """Loading: :func:`export_trees`' codes must close every half-tree, and a root
+    has no right child.  O(n)."""
+    if type(layout) is not list or len(layout) != len(handles):
+        return f"expected a list of {len(handles)} codes, got {layout!r:.80}"
+    open_ = 0
+    for i, c in enumerate(layout):
+        if type(c) is not int or c < 0:
+            return f"code {c!r:.40} at {i} is not a non-negative int"
+        if open_:
+            open_ -= 1
+        elif c & 1:
+            return f"root {i} has a right child"
+        open_ += (c & 1) + (c >> 1 & 1)
+    return f"{open_} announced child(ren) missing" if open_ else None
+
+
 def roots_of(heap: Any) -> list[Any]:
     """The roots in list order, first root first (stops on a broken list)."""
     first = heap._first

@@ -27,6 +27,26 @@ class BinomialRules:
 
     __slots__ = ()
 
+    def _layout_problem(self, handles: list[Any], layout: Any) -> str | None:
+        """Loading: distinct root degrees whose trees (2**d nodes) hold every handle,
+        and the min's index at a root.  O(number of roots)."""
+        if type(layout) is not tuple or len(layout) != 2:
+            return f"expected (root degrees, min index), got {layout!r:.80}"
+        degs, at = layout
+        n = len(handles)
+        if type(degs) is not list or any(type(d) is not int or not 0 <= d < 64 for d in degs):
+            return f"root degrees {degs!r:.80} are not ints in 0..63"
+        if len(set(degs)) != len(degs) or sum(1 << d for d in degs) != n:
+            return f"root degrees {degs!r:.80} do not make {n} nodes of distinct degrees"
+        starts = {0}
+        pos = 0
+        for d in degs:
+            pos += 1 << d
+            starts.add(pos)
+        if (n and (type(at) is not int or at == n or at not in starts)) or (not n and at != -1):
+            return f"min index {at!r:.40} is not the index of a root"
+        return None
+
     RULES: ClassVar[dict[str, str]] = {
         "heap-order": "no child is smaller than its parent",
         "binomial-shape": "a degree-k node has children of degrees k-1..0 in order; "

@@ -91,6 +91,7 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
     __slots__ = ("_a", "_d")
 
     KIND: ClassVar[str] = "dary"
+    _NODE: ClassVar[type[Any]] = _Slot
     BOUNDS: ClassVar[str] = "worst-case: push, decrease_key O(log_d n); pop, remove, change_key O(d log_d n); peek O(1)"
     WORST_CASE: ClassVar[bool] = True
     DEFAULT_ARITY: ClassVar[int] = 4

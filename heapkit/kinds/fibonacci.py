@@ -452,6 +452,7 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
 
     # Checked mode and to_dot hooks (see _fibonacci_shape.py and the SPI in _core.py).
     _touched, _survey_local, _dot_edges = _rules.touched, _rules.survey_local, _rules.dot_edges
+    _layout_problem = _rules.layout_problem
 
     # --- audit -------------------------------------------------------------
     def _phi(self) -> float:

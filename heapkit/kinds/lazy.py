@@ -57,6 +57,7 @@ from heapkit._core import (
     Owner,
     Stable,
     empty_error,
+    foreign_error,
     nan_error,
     owner_root,
     upward_error,
@@ -74,7 +75,9 @@ from heapkit.kinds._lazy_entries import (
     _user_key,
     dot_edges,
     flatten,
+    layout_problem,
     rebuild,
+    slot_path,
 )
 from heapkit.protocol import Handle
 
@@ -138,7 +141,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
     def _claim(self, h: Any, op: str) -> Any:
         """Slow path of the ownership check: the handle's entry, or raise."""
         if not isinstance(h, _Handle):
-            raise TypeError(f"{op}: expected a handle returned by push, got {h!r}")
+            raise foreign_error(op, h)
         e = h._e
         if type(e) is not tuple:
             raise InvalidHandleError(
@@ -181,6 +184,8 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
         """
         if not self._n:
             raise empty_error("peek")
+        if self._stale >= self._n:
+            self._compact()  # as pop would: a compaction may reorder tied entries
         a = self._a
         while True:
             e = a[0]
@@ -374,8 +379,10 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
     def _import(self, handles: list[Any], layout: list[Any]) -> None:
         self._a, self._stale = rebuild(handles, layout, self._tok, self._wrap)
 
+    _layout_problem = layout_problem
+
     def __setstate__(self, state: tuple[list[Any], Any]) -> None:
-        handles, layout = state
+        handles, layout = self._validate(state, _Handle)
         self._import(handles, layout)
         self._n = len(handles)
 
@@ -403,15 +410,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
             self._map_order(lambda o, key: _normal(o))
 
     # --- check and audit -----------------------------------------------------
-    @staticmethod
-    def _path(i: int) -> list[str]:
-        steps: list[str] = []
-        while i > 0:
-            steps.append(f"child {(i - 1) & 1}")
-            i = (i - 1) >> 1
-        steps.append("root")
-        steps.reverse()
-        return steps
+    _path = staticmethod(slot_path)
 
     def _survey(self, report: Any) -> dict[str, Any]:
         a = self._a

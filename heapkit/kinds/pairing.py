@@ -87,6 +87,7 @@ class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
     __slots__ = ("_root",)
 
     KIND: ClassVar[str] = "pairing"
+    _NODE: ClassVar[type[Any]] = _Node
     BOUNDS: ClassVar[str] = "push, meld, peek O(1) worst-case; pop, remove, decrease_key, change_key O(log n) amortized"
     RULES: ClassVar[dict[str, str]] = {
         "heap-order": "no child is smaller than its parent",
@@ -371,6 +372,7 @@ class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
 
     # Checked mode and to_dot hooks (see pairing_checks.py and the SPI in _core.py).
     _touched, _survey_local, _dot_edges = _pc.touched, _pc.survey_local, _pc.dot_edges
+    _layout_problem = _pc.layout_problem
 
     def _map_order(self, fn: Callable[[Any, Any], Any]) -> None:
         for x in self._handles():

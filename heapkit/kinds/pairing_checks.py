@@ -26,6 +26,7 @@ from __future__ import annotations
 from collections.abc import Iterator
 from typing import Any
 
+from heapkit.kinds._layout import forest_problem
 from heapkit.kinds.pairing_links import _children
 
 __all__ = ["dot_edges", "path_up", "survey_local", "touched"]
@@ -186,3 +187,8 @@ def dot_edges(heap: Any) -> Iterator[tuple[Any, Any, str]]:
         kids = _children(x)
         yield parent, x, f"degree {len(kids)}"
         stack.extend((x, c) for c in reversed(kids))
+
+
+def layout_problem(heap: Any, handles: list[Any], layout: Any) -> str | None:
+    """Loading: the child counts in preorder must make one tree of the handles.  O(n)."""
+    return forest_problem(layout, len(handles), True)

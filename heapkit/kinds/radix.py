@@ -19,7 +19,10 @@ and with ``L := m`` every other key of that bucket lands in a lower bucket.
 Bounds
 ------
 push, remove, decrease_key, change_key: O(1) worst-case (a swap-remove and an
-append).  pop: O(log C) amortized where ``C`` bounds ``key - L``; peek: O(s)
+append), keys below ``2 ** MAX_BITS`` (4096): a push or change_key that opens a new
+highest bucket first appends the empty buckets below it (at most ``MAX_BITS + 1`` ever
+exist; pop trims empty top buckets, each once per append).
+pop: O(log C) amortized where ``C`` bounds ``key - L``; peek: O(s)
 worst-case for the s entries of the first non-empty bucket (it moves nothing).  meld: O(m) for the m
 entries moved.  Dijkstra with integer weights up to C: O(m + n log C).
 ``stable=True`` adds a scan of bucket 0 to pop: O(t) for the t entries tied
@@ -50,6 +53,7 @@ from typing import Any, ClassVar, Generic, TypeVar
 
 from heapkit._core import HandleBase, HeapBase, empty_error, upward_error
 from heapkit.errors import KeyOrderError
+from heapkit.kinds._layout import bucket_problem
 from heapkit.protocol import Handle
 
 __all__ = ["RadixHeap"]
@@ -75,11 +79,20 @@ class _Item(HandleBase[K, V]):
         self._i = 0
 
 
+#: Keys are below ``2 ** MAX_BITS``: at most ``MAX_BITS + 1`` buckets ever exist.
+MAX_BITS = 4096
+
+
 def _key_error(op: str, key: object, last: int) -> KeyOrderError:
     if isinstance(key, bool) or not isinstance(key, int):
         why = f"is a {type(key).__name__}"
     elif key < 0:
         why = "is negative"
+    elif key >= last:
+        return KeyOrderError(
+            f"{op}: key of {key.bit_length()} bits is too large: radix heap keys are below "
+            f"2**{MAX_BITS}"
+        )
     else:
         why = "is too low"
     return KeyOrderError(
@@ -105,6 +118,7 @@ class RadixHeap(HeapBase[K, V], Generic[K, V]):
     __slots__ = ("_buckets", "_last")
 
     KIND: ClassVar[str] = "radix"
+    _NODE: ClassVar[type[Any]] = _Item
     BOUNDS: ClassVar[str] = "monotone int keys; push, decrease_key, remove O(1); pop O(log C) amortized"
     #: Takes only monotone non-negative int keys (the benchmark and tools select by this).
     MONOTONE: ClassVar[bool] = True
@@ -139,7 +153,7 @@ class RadixHeap(HeapBase[K, V], Generic[K, V]):
         """
         return self._last
 
-    # Precondition: x is not in any bucket.  Restores: x is at the end of bucket b.
+    # Precondition: x is not in any bucket, b <= MAX_BITS.  Restores: x is at the end of bucket b.
     def _put(self, x: Any, b: int) -> None:
         buckets = self._buckets
         while b >= len(buckets):
@@ -181,6 +195,8 @@ class RadixHeap(HeapBase[K, V], Generic[K, V]):
             bl = buckets[b]
             x._i = len(bl)
             bl.append(x)
+        elif b > MAX_BITS:
+            raise _key_error("push", key, last)
         else:
             self._put(x, b)
         self._n += 1
@@ -201,10 +217,15 @@ class RadixHeap(HeapBase[K, V], Generic[K, V]):
         last = m._key
         self._last = last
         for x in src:
-            bl = buckets[(x._key ^ last).bit_length()]
-            x._i = len(bl)
-            bl.append(x)
+            if x is not m:
+                bl = buckets[(x._key ^ last).bit_length()]
+                x._i = len(bl)
+                bl.append(x)
+        m._i = len(b0)
+        b0.append(m)  # last in bucket 0: pop takes the entry peek named
         src.clear()
+        while not buckets[-1] and len(buckets) > 1:  # each bucket trimmed once per append
+            buckets.pop()
         return b0
 
     def peek(self) -> Handle[K, V]:
@@ -293,6 +314,8 @@ class RadixHeap(HeapBase[K, V], Generic[K, V]):
         w = self._wrap
         k = key if w is None else w(key, x._k)
         b = (key ^ last).bit_length()
+        if b > MAX_BITS:
+            raise _key_error("change_key", key, last)
         if b != (x._key ^ last).bit_length():
             self._take(x)
             self._put(x, b)
@@ -346,6 +369,9 @@ class RadixHeap(HeapBase[K, V], Generic[K, V]):
     def _export(self) -> tuple[list[Any], tuple[int, list[int]]]:
         out = [x for bl in self._buckets for x in bl]
         return out, (self._last, [len(bl) for bl in self._buckets])
+
+    def _layout_problem(self, handles: list[Any], layout: Any) -> str | None:
+        return bucket_problem(handles, layout, MAX_BITS)
 
     def _import(self, handles: list[Any], layout: tuple[int, list[int]]) -> None:
         last, sizes = layout

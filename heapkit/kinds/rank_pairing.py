@@ -66,6 +66,7 @@ from heapkit.kinds._rank_pairing_rules import (
     dot_edges,
     export_trees,
     import_trees,
+    layout_problem,
     nodes_of,
     roots_of,
     survey,
@@ -238,6 +239,7 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
                 if c is not None:
                     c._up = t
                 t._up = u
+                t._next = t._prev = None  # no longer a root: drop its root-list links
                 u._left = t
                 u._rank = r + 1
                 links += 1
@@ -455,6 +457,7 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
         survey_local(self, report, touched)
 
     _dot_edges = dot_edges  # to_dot hook (see _rank_pairing_rules.py and the SPI in _core.py)
+    _layout_problem = layout_problem
 
     # --- audit -------------------------------------------------------------
     def _phi(self) -> float:

@@ -134,12 +134,14 @@ class _Base(RuleBasedStateMachine):
         self.entries.append(entry)
         self.by_value[value] = entry
 
-    def _pop(self, w: int) -> None:
+    def _pop(self, w: int, named: tuple[Any, Any] | None = None) -> None:
         q, ref = self.queues[w], self.refs[w]
         if not ref:
             self._expect_error(f"{self.qname(w)}.pop()", q.pop, IndexError)
             return
         got = self._call(f"{self.qname(w)}.pop()", q.pop)
+        if named is not None and got != named:
+            self.fail(f"pop returned {got!r}, but the peek just before it named {named!r}")
         want = ref.peek()
         if not isinstance(got, tuple) or len(got) != 2:
             self.fail(f"pop returned {got!r}, expected a (key, value) pair like {(want.key, want.value)!r}; "
@@ -169,6 +171,13 @@ class _Base(RuleBasedStateMachine):
                       f"to fix: {_FIX['peek']}")
         if not _same(key, ref.peek().key):
             self.fail(f"peek gave key {key!r}, but {ref.peek().key!r} is the smallest")
+
+    def _peek_pop(self, w: int) -> None:
+        """Protocol rule: with no operation between, pop returns the entry peek named."""
+        if not self.refs[w]:
+            return
+        got = self._call(f"{self.qname(w)}.peek()", self.queues[w].peek)
+        self._pop(w, got if isinstance(got, tuple) else (got.key, got.value))
 
     def _live(self, data: st.DataObject) -> tuple[int, tuple[str, Any, Any]] | None:
         live = [e for e in self.entries if e[2].alive]
@@ -242,6 +251,10 @@ def machine(
             @rule(w=sides)
             def peek(self, w: int) -> None:
                 self._peek(w)
+
+        @rule(w=sides)
+        def pop_returns_what_peek_named(self, w: int) -> None:
+            self._peek_pop(w)
 
         if has["decrease"]:
 
