@@ -33,7 +33,8 @@ def _key(data: Any) -> Any:
             stack.append(((items, out), None))
             stack.extend((x, items) for x in reversed(d))
         elif isinstance(d, float) and d != d:
-            # Until heapkit has one NaN-in-tuple check, this one serves traces.
+            # The parse visits every item once, so it tests each here (the same rule as
+            # heapkit.errors.nan_inside, which would walk the key a second time).
             raise ValueError("a key holds NaN, which has no order")
         elif isinstance(d, float) and not math.isfinite(d):
             raise ValueError(f"a key holds {d!r}; trace keys are finite numbers")
