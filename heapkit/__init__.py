@@ -1,7 +1,7 @@
 """heapkit: addressable priority queues with handles, contracts and an auditor."""
 
 from heapkit.audit import audit
-from heapkit.contracts import check, checked, to_dot, unchecked
+from heapkit.contracts import HistoryError, check, checked, set_debug, to_dot, unchecked
 from heapkit.errors import (
     BoundExceededError,
     EmptyHeapError,
@@ -39,6 +39,7 @@ __all__ = [
     "Handle",
     "Heap",
     "HeapError",
+    "HistoryError",
     "HollowHeap",
     "InvalidHandleError",
     "InvariantError",
@@ -54,6 +55,7 @@ __all__ = [
     "checked",
     "locked",
     "new",
+    "set_debug",
     "to_dot",
     "unchecked",
 ]

@@ -31,7 +31,7 @@ from collections.abc import Callable
 from typing import Any
 
 from heapkit import _core
-from heapkit._core import HeapBase, Wrap
+from heapkit._core import HeapBase, Wrap, mode_repr
 from heapkit.ledger import OPS, Ledger
 
 __all__ = ["Counted", "attach", "audit", "configure", "detach"]
@@ -95,10 +95,6 @@ def _counting(inner: Wrap | None) -> Wrap:
     return w
 
 
-def _unwrap(o: Any, key: Any) -> Any:
-    return o.inner if type(o) is Counted else o
-
-
 class _State:
     """Per-heap audit state, in ``heap._ext["audit"]``."""
 
@@ -143,6 +139,16 @@ def _drop_cache(heap: Any) -> None:
         ext.pop("phi", None)
 
 
+def _failed(heap: Any, st: _State) -> None:
+    """An operation raised: forget the cached potential and the one remembered from the last record."""
+    _drop_cache(heap)
+    st.last_ver = -1
+
+
+def _count_again(o: Any, key: Any) -> Any:
+    return o if type(o) is Counted else Counted(o)
+
+
 def _record(
     heap: Any, st: _State, code: int, n: int, actual: int, phi0: float, bound: float, c0: int
 ) -> None:
@@ -162,8 +168,7 @@ def _measured(heap: Any, st: _State, op: str, target: Any, call: Callable[..., A
     try:
         out = call(heap, *args)
     except BaseException:
-        _drop_cache(heap)
-        st.last_ver = -1
+        _failed(heap, st)
         raise
     finally:
         st.busy = False
@@ -190,6 +195,7 @@ def _make_methods(base: type) -> dict[str, Any]:
     b_push, b_pop, b_extend = base.push, base.pop, base.extend  # type: ignore[attr-defined]
     b_dec, b_chg, b_rem = base.decrease_key, base.change_key, base.remove  # type: ignore[attr-defined]
     b_meld, b_clear, b_reset, b_copy = base.meld, base.clear, base._reset, base.__copy__  # type: ignore[attr-defined]
+    b_setstate, b_repr = base.__setstate__, base.__repr__  # type: ignore[attr-defined]
 
     def push(self: Any, key: Any, value: Any) -> Any:
         st = _live(self)
@@ -226,7 +232,7 @@ def _make_methods(base: type) -> dict[str, Any]:
         try:
             b_meld(self, other)
         except BaseException:
-            _drop_cache(self)
+            _failed(self, st)
             _drop_cache(other)
             raise
         finally:
@@ -253,7 +259,7 @@ def _make_methods(base: type) -> dict[str, Any]:
             try:
                 b_meld(self, tmp)
             except BaseException:
-                _drop_cache(self)
+                _failed(self, st)
                 raise
             finally:
                 st.busy = False
@@ -282,17 +288,36 @@ def _make_methods(base: type) -> dict[str, Any]:
         if st is not None:
             self._wrap = st.wrap
 
+    # A copy is a new heap: plain, or audited by HEAPKIT_DEBUG (then this class's
+    # __setstate__ counted its entries).  A plain one gets its kind's own ordering objects.
     def __copy__(self: Any) -> Any:
         new = b_copy(self)
-        new._map_order(_unwrap)
+        if _state(new) is None:
+            new._rewrap(new._wrap)
         return new
 
+    # Unpickling, deepcopy and copy fill an audited heap (HEAPKIT_DEBUG=audit) behind the
+    # auditor's back: count the entries' comparisons and measure the potential afresh.
+    def __setstate__(self: Any, state: Any) -> None:
+        b_setstate(self, state)
+        st = _state(self)
+        if st is not None:
+            self._map_order(_count_again)
+            _failed(self, st)
+
+    def __repr__(self: Any) -> str:
+        text = b_repr(self)
+        name = type(self).__name__
+        if text.startswith(f"<{name}") and name.startswith("Audited"):
+            text = f"<{name[7:]}{text[len(name) + 1:]}"
+        return text if _state(self) is None else mode_repr(text, "audited")
+
     return {
-        "push": push, "pop": pop, "extend": extend, "meld": meld, "clear": clear,
+        "__repr__": __repr__, "push": push, "pop": pop, "extend": extend, "meld": meld, "clear": clear,
         "decrease_key": _handle_op("decrease_key", b_dec),
         "change_key": _handle_op("change_key", b_chg),
         "remove": _handle_op("remove", b_rem),
-        "_reset": _reset, "__copy__": __copy__,
+        "_reset": _reset, "__copy__": __copy__, "__setstate__": __setstate__,
     }
 
 
@@ -322,7 +347,16 @@ def _kind_name(heap: Any) -> str:
     return type(heap).__name__  # pragma: no cover
 
 
+def _validate(where: str, keep: object, top: object) -> None:
+    """Refuse a bad option before anything happens (not at the first audited operation)."""
+    if keep not in ("all", "totals"):
+        raise ValueError(f"{where}: keep must be 'all' or 'totals', got {keep!r}")
+    if not isinstance(top, int) or isinstance(top, bool) or top < 1:
+        raise ValueError(f"{where}: top must be an integer of at least 1, got {top!r}")
+
+
 def _begin(heap: Any, keep: str, top: int) -> Ledger:
+    _validate("audit", keep, top)
     if not isinstance(heap, HeapBase):
         raise TypeError(f"audit: expected a heapkit heap, got {type(heap).__name__}")
     return _begin_on(heap, keep, top)
@@ -362,8 +396,7 @@ def _end(heap: Any, led: Ledger) -> None:
     ext.pop("phi", None)
     if not ext:
         heap._ext = None
-    heap._map_order(_unwrap)
-    heap._wrap = st.saved_wrap
+    heap._rewrap(st.saved_wrap)  # the kind's own ordering objects (lazy wraps non-native keys)
     if type(heap) is _CLASSES.get(st.base):
         heap.__class__ = st.base
     # Otherwise another mode switched the class after this one: the auditing layer
@@ -456,6 +489,7 @@ class Auditor:
 
     def __call__(self, heap: Any, *, keep: str = "all", top: int = 16) -> _Session:
         """Audit ``heap`` in a ``with`` block (``keep="totals"`` for long runs).  O(n) to enter, leave."""
+        _validate("audit", keep, top)
         return _Session(heap, keep, top)
 
 

@@ -13,11 +13,11 @@ The modules, one idea each:
 
 from __future__ import annotations
 
-import heapkit.contracts.switch  # noqa: F401  (reads HEAPKIT_DEBUG once, at import)
 from heapkit.contracts.dot import to_dot
 from heapkit.contracts.history import HistoryError, replay
 from heapkit.contracts.mode import checked, unchecked
 from heapkit.contracts.report import LIMIT, PROTOCOL_RULES, Report, check, problem_prefix
+from heapkit.contracts.switch import set_debug  # reads HEAPKIT_DEBUG once, at import
 
 __all__ = [
     "LIMIT",
@@ -28,6 +28,7 @@ __all__ = [
     "checked",
     "problem_prefix",
     "replay",
+    "set_debug",
     "to_dot",
     "unchecked",
 ]

@@ -16,15 +16,23 @@ check outnumber the entries the heap held then: O(1) amortized entries visited
 per operation, and a heap that only grows is still checked in full each time
 it doubles).  Kinds without the hooks get a full check each time.  An operation
 that raises from a key's ``<`` is followed by a full check.
+
+A completed operation is never turned into a failure that loses its result:
+if a key's ``<`` raises while the layer verifies an operation that already
+took effect, the operation's result is returned and the heap is checked in
+full at the next operation (the check is deferred, not skipped).  Only a
+broken rule (``HistoryError``) is raised after the fact.  The comparisons the
+layer makes are its own: an audit stacked above it does not count them.
 """
 
 from __future__ import annotations
 
 import sys
 from collections import deque
+from types import CodeType, FunctionType
 from typing import Any, TypeVar
 
-from heapkit._core import HeapBase
+from heapkit._core import HeapBase, mode_repr
 from heapkit.contracts.history import Entry, HistoryError
 from heapkit.contracts.report import Report, check
 from heapkit.errors import HeapError
@@ -209,29 +217,71 @@ def _kind_class(h: Any) -> type:
     return type(h)  # pragma: no cover - a heap always has its kind below
 
 
+#: Rules that compare keys: a stock kind breaks them only when a key changed under it.
+_ORDER_RULES = frozenset(("heap-order", "half-order", "minimum", "min", "min-first", "monotone", "bucket"))
+
+MUTATED_HINT = (
+    "\n  likely cause: a key changed in place after it was pushed (a list or an object whose "
+    "fields `<` reads), or a `<` that is not a consistent order; heapkit's own kinds keep "
+    "this rule.  Use change_key with a new key object instead.  err.history lists the last "
+    "operations; err.replay() cannot reproduce this failure: it reruns them with the key "
+    "objects as they are now (keys are recorded by reference), so it builds a healthy heap"
+)
+
+
+def _stock(h: Any) -> bool:
+    """Is the heap's kind one of heapkit's own (not a user's subclass)?"""
+    cls = _kind_class(h)
+    return cls.__module__.startswith("heapkit.kinds")
+
+
 def _failure(h: Any, st: _State, report: Report) -> HistoryError:
     cls, stable, opts = _kind_class(h), h._stable, h._options()
     base = report.error(h, f" after {st.history[-1][0] if st.history else 'enabling'}")
+    text = str(base)
+    if _stock(h) and any(r in _ORDER_RULES for r in report.rules):
+        text += MUTATED_HINT
     return HistoryError(
-        str(base), tuple(report.problems), tuple(report.rules), list(st.history),
+        text, tuple(report.problems), tuple(report.rules), list(st.history),
         lambda: cls(stable=stable, **opts), st.base, list(st.record),
     )
+
+
+#: Per class: (code objects of the mode layers' methods, code objects of the kind's methods).
+_CODES: dict[type, tuple[frozenset[CodeType], frozenset[CodeType]]] = {}
+
+
+def _codes(cls: type) -> tuple[frozenset[CodeType], frozenset[CodeType]]:
+    got = _CODES.get(cls)
+    if got is None:
+        layer: set[CodeType] = set()
+        kind: set[CodeType] = set()
+        for c in cls.__mro__:
+            into = layer if "_layer" in c.__dict__ else kind
+            for v in c.__dict__.values():
+                fn = getattr(v, "__func__", v)
+                if isinstance(fn, FunctionType):
+                    into.add(fn.__code__)
+        got = _CODES[cls] = (frozenset(layer), frozenset(kind))
+    return got
 
 
 def _internal(h: Any, depth: int) -> bool:
     """Is the wrapper's caller the heap's own code (not a key's ``<``)?
 
-    Frames of another mode's layer stacked above this one (the auditor's) are
-    passed over: their caller is the one that counts.
+    Decided by the code object of the calling frame: it must be a method of a
+    class in this heap's own MRO (a kind's ``remove`` calling its ``pop``, the
+    shared ``extend`` calling ``meld``).  Frames of another mode's layer stacked
+    above this one (the auditor's) are passed over: their caller is the one that
+    counts.  A key's ``<`` is never a method of the heap's class, wherever it is
+    defined.
     """
     # Frames: 0 _internal, 1 _begin, 2 the wrapper (3 with _rekey), then its caller.
-    mro = type(h).__mro__
-    above = {c.__module__ for c in mro if c.__dict__.get("_layer") not in (None, MODE)}
+    layer, kind = _codes(type(h))
     frame: Any = sys._getframe(depth + 1)
-    while frame is not None and frame.f_globals.get("__name__") in above:
+    while frame is not None and frame.f_code in layer:
         frame = frame.f_back
-    mod = None if frame is None else frame.f_globals.get("__name__")
-    return any(c.__module__ == mod for c in mro if "_layer" not in c.__dict__)
+    return frame is not None and frame.f_code in kind
 
 
 def _begin(h: Any, op: str, handle: Any, depth: int = 2) -> _State | None:
@@ -289,15 +339,36 @@ def _end(h: Any, st: _State, subject: Any, entry: Entry, also: Any = None, poppe
     """Finish a wrapped operation: record it, then verify what is due.
 
     The guard stays up while the checks compare keys: a meddling key must not
-    change the heap under the survey either.
+    change the heap under the survey either.  The operation has taken effect:
+    if a key's ``<`` raises during the verification, the check is deferred to
+    the next operation (a full one) and the caller still gets the result.
     """
     st.history.append(entry)
     st.record.append(entry)
+    c0 = _tally()
     try:
         _verify(h, st, subject, also, popped)
+    except HeapError:
+        raise
+    except Exception:
+        st.force = True  # the next operation checks everything
     finally:
+        _untally(c0)
         st.busy = None
         st.ver = h._ver
+
+
+def _tally() -> int:
+    """The auditor's comparison count now (0 without an auditor loaded)."""
+    aud = sys.modules.get("heapkit.audit")
+    return 0 if aud is None else int(aud._COUNT)
+
+
+def _untally(c0: int) -> None:
+    """Forget the comparisons made since ``_tally`` returned ``c0``: they were the checker's."""
+    aud = sys.modules.get("heapkit.audit")
+    if aud is not None:
+        aud._COUNT = c0
 
 
 def _verify(h: Any, st: _State, subject: Any, also: Any, popped: Any) -> None:
@@ -329,18 +400,26 @@ def _popped_minimum(report: Report, h: Any, popped: Any) -> None:
 
 def _abort(h: Any, st: _State, exc: BaseException) -> None:
     """An operation raised: heapkit's own errors must leave the heap as it was,
-    any other exception must leave every rule intact (a full check)."""
+    any other exception must leave every rule intact (a full check; if the key's
+    ``<`` raises again there, the full check is deferred to the next operation)."""
     op = st.busy
     st.touched = _NOTHING
     report = Report()
+    c0 = _tally()
     try:
         if isinstance(exc, HeapError):
             if h._ver != st.ver_before:
                 report.fail("unchanged", None, [], f"{op} raised {type(exc).__name__} yet changed the heap")
         else:
             st.since_full = 0
-            report.run(h._survey)
+            try:
+                report.run(h._survey)
+            except HeapError:
+                raise
+            except Exception:
+                st.force = True
     finally:
+        _untally(c0)
         st.busy = None
         st.ver = h._ver
     if report.problems:
@@ -351,6 +430,11 @@ class _Checking:
     """The checking layer: wraps each mutating operation of the class below it."""
 
     __slots__ = ()
+
+    def __repr__(self) -> str:
+        st: Any = _state_of(self)
+        tag = "checked" if st is None or st.every == 1 else f"checked every {st.every}"
+        return mode_repr(super().__repr__(), tag)
 
     def push(self, key: Any, value: Any) -> Any:
         sup: Any = super()
@@ -385,8 +469,14 @@ class _Checking:
         if st is None:
             return sup.pop()
         h: Any = self
-        top = h.peek() if h._n else None
+        top = None
         try:
+            if h._n:
+                c0 = _tally()
+                try:
+                    top = h.peek()  # which entry the pop takes, for the history (not counted)
+                finally:
+                    _untally(c0)
             kv = sup.pop()
         except BaseException as exc:
             _abort(self, st, exc)
@@ -489,7 +579,11 @@ def _inner_meld(h: Any, other: Any) -> None:
     if st.busy != "extend" or st.touched is not _PENDING:
         return
     report = Report()
-    report.run(other._survey)
+    c0 = _tally()
+    try:
+        report.run(other._survey)
+    finally:
+        _untally(c0)
     if report.problems:
         raise _failure(h, st, report)
     st.touched = h._touched("meld", other) if _valid(h, "meld", other) else _NOTHING
