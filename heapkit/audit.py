@@ -145,10 +145,6 @@ def _failed(heap: Any, st: _State) -> None:
     st.last_ver = -1
 
 
-def _count_again(o: Any, key: Any) -> Any:
-    return o if type(o) is Counted else Counted(o)
-
-
 def _record(
     heap: Any, st: _State, code: int, n: int, actual: int, phi0: float, bound: float, c0: int
 ) -> None:
@@ -302,7 +298,8 @@ def _make_methods(base: type) -> dict[str, Any]:
         b_setstate(self, state)
         st = _state(self)
         if st is not None:
-            self._map_order(_count_again)
+            wrap = st.wrap
+            self._map_order(lambda o, key: o if type(o) is Counted else wrap(key, o))
             _failed(self, st)
 
     def __repr__(self: Any) -> str:
@@ -375,8 +372,9 @@ def _begin_on(heap: Any, keep: str, top: int) -> Ledger:
             heap._ext = {}
         heap._ext.pop("phi", None)
         heap._ext["audit"] = st
-        heap._map_order(lambda o, key: Counted(o))
-        heap._wrap = st.wrap
+        heap._wrap = wrap = st.wrap
+        # As a push under the audit makes them (so lazy holds no bare key beside an _Ord).
+        heap._map_order(lambda o, key: wrap(key, o))
         heap.__class__ = _audited_class(cls)
     led.start(heap._phi())
     st.ledgers = (*st.ledgers, led)

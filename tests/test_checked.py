@@ -279,11 +279,16 @@ def test_heapkit_debug_makes_new_heaps_checked() -> None:
     assert out.stdout.split("\n")[:2] == ["3 True audit checked", "caught ('heap-order',)"]
 
 
-def test_heapkit_debug_rejects_unknown_values() -> None:
-    for bad in ("chek", "check:0", "audit:2"):
-        out = _python("import heapkit", bad)
-        assert out.returncode != 0
-        assert f"unknown value {bad!r}" in out.stderr and "accepted: check, check:N" in out.stderr
+def test_heapkit_debug_warns_about_unknown_values_and_ignores_them() -> None:
+    # Issue 13: a typo in the environment must not stop the host program at import.
+    for bad in ("chek", "check:0", "audit:2", "1", "CHECK"):
+        out = _python("import heapkit; print(type(heapkit.new('pairing')).__name__)", f"{bad}, check:2")
+        assert out.returncode == 0, out.stderr
+        assert f"ignoring unknown value {bad!r}" in out.stderr and "accepted: check, check:N" in out.stderr
+        assert "checked mode (every 2nd operation) is on" in out.stderr
+        assert out.stdout.strip() == "PairingHeap"
+    out = _python("import heapkit", "CHECK")
+    assert "did you mean 'check'?" in out.stderr
 
 
 def test_without_heapkit_debug_heaps_are_plain() -> None:
