@@ -25,18 +25,16 @@ them in; bound = ``k * _bound("push", n + k) + _bound("meld", n + k)``.
 
 from __future__ import annotations
 
-import logging
-import weakref
 from collections.abc import Callable
 from typing import Any
 
 from heapkit import _core
 from heapkit._core import HeapBase, Wrap, mode_repr
+from heapkit.audit_reports import Collector, attach, configure, detach, flush
+from heapkit.contracts.report import kind_name
 from heapkit.ledger import OPS, Ledger
 
-__all__ = ["Counted", "attach", "audit", "configure", "detach"]
-
-_log = logging.getLogger("heapkit.audit")
+__all__ = ["Collector", "Counted", "attach", "audit", "configure", "detach", "flush"]
 
 #: Comparisons made by every :class:`Counted` so far (read before and after an operation).
 _COUNT = 0
@@ -337,13 +335,6 @@ def _audited_class(base: type) -> type:
     return cls
 
 
-def _kind_name(heap: Any) -> str:
-    for c in type(heap).__mro__:
-        if "KIND" in c.__dict__:
-            return str(c.__dict__["KIND"])
-    return type(heap).__name__  # pragma: no cover
-
-
 def _validate(where: str, keep: object, top: object) -> None:
     """Refuse a bad option before anything happens (not at the first audited operation)."""
     if keep not in ("all", "totals"):
@@ -363,8 +354,8 @@ def _begin_on(heap: Any, keep: str, top: int) -> Ledger:
     cls = type(heap)
     missing = [h for h in _HOOKS if not callable(getattr(cls, h, None))]
     if missing:
-        raise TypeError(f"audit: kind {_kind_name(heap)!r} lacks the audit hooks {', '.join(missing)}")
-    led = Ledger(_kind_name(heap), cls.COST_UNIT, cls.PHI_C, keep=keep, top=top)
+        raise TypeError(f"audit: kind {kind_name(heap)!r} lacks the audit hooks {', '.join(missing)}")
+    led = Ledger(kind_name(heap), cls.COST_UNIT, cls.PHI_C, keep=keep, top=top)
     st = _state(heap)
     if st is None:
         st = _State(cls, heap._wrap)
@@ -419,57 +410,6 @@ class _Session:
             _end(self.heap, self.ledger)
 
 
-_REPORT: Callable[[Ledger], None] | None = None
-_KEEP = "totals"
-
-
-def configure(*, report: Callable[[Ledger], None] | None = None, keep: str = "totals") -> None:
-    """Where ``attach``-ed audits report when their heap goes away (or at interpreter exit).
-
-    ``report``: called with the :class:`Ledger`; None logs the summary on the
-    ``heapkit.audit`` logger (WARNING if a bound was exceeded, INFO otherwise).
-    ``keep``: what attached audits keep (``"totals"`` by default, flat memory).
-
-    >>> configure(report=None, keep="totals")
-    """
-    global _REPORT, _KEEP
-    if keep not in ("all", "totals"):
-        raise ValueError(f"configure: keep must be 'all' or 'totals', got {keep!r}")
-    _REPORT = report
-    _KEEP = keep
-
-
-def _report(led: Ledger) -> None:
-    if _REPORT is not None:
-        _REPORT(led)
-        return
-    level = logging.WARNING if led.violation_count else logging.INFO
-    _log.log(level, "%s", led.summary())
-
-
-def attach(heap: Any) -> Ledger:
-    """Audit ``heap`` for the rest of its life; report through ``configure`` when it goes away.
-
-    Used by ``HEAPKIT_DEBUG=audit``.  O(n) once (wrapping the entries).
-
-    >>> from heapkit import PairingHeap
-    >>> seen = []
-    >>> configure(report=seen.append)
-    >>> h = PairingHeap(); led = attach(h); _ = h.push(1, 'a')
-    >>> del h; [x.count for x in seen]
-    [1]
-    >>> configure(report=None)
-    """
-    led = _begin(heap, _KEEP, 16)
-    weakref.finalize(heap, _report, led)
-    return led
-
-
-def detach(heap: Any, ledger: Ledger) -> None:
-    """Stop an ``attach``-ed audit now (its report still comes when the heap goes away).  O(n)."""
-    _end(heap, ledger)
-
-
 class Auditor:
     """``heapkit.audit``: call it on a heap for a context manager; ``attach`` and ``configure`` too.
 
@@ -484,6 +424,8 @@ class Auditor:
     attach = staticmethod(attach)
     detach = staticmethod(detach)
     configure = staticmethod(configure)
+    flush = staticmethod(flush)
+    Collector = Collector
 
     def __call__(self, heap: Any, *, keep: str = "all", top: int = 16) -> _Session:
         """Audit ``heap`` in a ``with`` block (``keep="totals"`` for long runs).  O(n) to enter, leave."""

@@ -200,9 +200,9 @@ def test_the_guard_is_not_fooled_by_a_subclass_in_the_keys_module() -> None:
 @pytest.mark.parametrize("top", [0, -1, "3", 2.5, True])
 def test_audit_refuses_a_bad_top_before_anything_happens(top: Any) -> None:
     h = PairingHeap([(2, "b"), (1, "a")])
-    with pytest.raises(ValueError, match=f"top must be an integer of at least 1, got {top!r}"):
-        with audit(h, keep="totals", top=top):
-            h.pop()
+    with pytest.raises(ValueError, match=f"top must be an integer of at least 1, got {top!r}"), \
+            audit(h, keep="totals", top=top):
+        h.pop()
     assert len(h) == 2 and type(h) is PairingHeap
 
 

@@ -27,13 +27,12 @@ layer makes are its own: an audit stacked above it does not count them.
 
 from __future__ import annotations
 
-import sys
 from collections import deque
-from types import CodeType, FunctionType
 from typing import Any, TypeVar
 
 from heapkit._core import HeapBase, mode_repr
-from heapkit.contracts.history import Entry, HistoryError
+from heapkit.contracts.guard import internal, tally, untally
+from heapkit.contracts.history import Entry, failure
 from heapkit.contracts.report import Report, check
 from heapkit.errors import HeapError
 
@@ -209,81 +208,6 @@ def _layer(cls: type) -> type:
     return sub
 
 
-def _kind_class(h: Any) -> type:
-    """The class to rebuild ``h`` from (below every mode layer)."""
-    for c in type(h).__mro__:
-        if issubclass(c, HeapBase) and "_layer" not in c.__dict__:
-            return c
-    return type(h)  # pragma: no cover - a heap always has its kind below
-
-
-#: Rules that compare keys: a stock kind breaks them only when a key changed under it.
-_ORDER_RULES = frozenset(("heap-order", "half-order", "minimum", "min", "min-first", "monotone", "bucket"))
-
-MUTATED_HINT = (
-    "\n  likely cause: a key changed in place after it was pushed (a list or an object whose "
-    "fields `<` reads), or a `<` that is not a consistent order; heapkit's own kinds keep "
-    "this rule.  Use change_key with a new key object instead.  err.history lists the last "
-    "operations; err.replay() cannot reproduce this failure: it reruns them with the key "
-    "objects as they are now (keys are recorded by reference), so it builds a healthy heap"
-)
-
-
-def _stock(h: Any) -> bool:
-    """Is the heap's kind one of heapkit's own (not a user's subclass)?"""
-    cls = _kind_class(h)
-    return cls.__module__.startswith("heapkit.kinds")
-
-
-def _failure(h: Any, st: _State, report: Report) -> HistoryError:
-    cls, stable, opts = _kind_class(h), h._stable, h._options()
-    base = report.error(h, f" after {st.history[-1][0] if st.history else 'enabling'}")
-    text = str(base)
-    if _stock(h) and any(r in _ORDER_RULES for r in report.rules):
-        text += MUTATED_HINT
-    return HistoryError(
-        text, tuple(report.problems), tuple(report.rules), list(st.history),
-        lambda: cls(stable=stable, **opts), st.base, list(st.record),
-    )
-
-
-#: Per class: (code objects of the mode layers' methods, code objects of the kind's methods).
-_CODES: dict[type, tuple[frozenset[CodeType], frozenset[CodeType]]] = {}
-
-
-def _codes(cls: type) -> tuple[frozenset[CodeType], frozenset[CodeType]]:
-    got = _CODES.get(cls)
-    if got is None:
-        layer: set[CodeType] = set()
-        kind: set[CodeType] = set()
-        for c in cls.__mro__:
-            into = layer if "_layer" in c.__dict__ else kind
-            for v in c.__dict__.values():
-                fn = getattr(v, "__func__", v)
-                if isinstance(fn, FunctionType):
-                    into.add(fn.__code__)
-        got = _CODES[cls] = (frozenset(layer), frozenset(kind))
-    return got
-
-
-def _internal(h: Any, depth: int) -> bool:
-    """Is the wrapper's caller the heap's own code (not a key's ``<``)?
-
-    Decided by the code object of the calling frame: it must be a method of a
-    class in this heap's own MRO (a kind's ``remove`` calling its ``pop``, the
-    shared ``extend`` calling ``meld``).  Frames of another mode's layer stacked
-    above this one (the auditor's) are passed over: their caller is the one that
-    counts.  A key's ``<`` is never a method of the heap's class, wherever it is
-    defined.
-    """
-    # Frames: 0 _internal, 1 _begin, 2 the wrapper (3 with _rekey), then its caller.
-    layer, kind = _codes(type(h))
-    frame: Any = sys._getframe(depth + 1)
-    while frame is not None and frame.f_code in layer:
-        frame = frame.f_back
-    return frame is not None and frame.f_code in kind
-
-
 def _begin(h: Any, op: str, handle: Any, depth: int = 2) -> _State | None:
     """Start a wrapped operation; None means: an internal call, pass it through.
 
@@ -291,7 +215,7 @@ def _begin(h: Any, op: str, handle: Any, depth: int = 2) -> _State | None:
     """
     st: _State = h._ext[MODE]
     if st.busy is not None:
-        if _internal(h, depth):
+        if internal(h, depth):
             return None
         raise RuntimeError(
             f"{op}: {type(h).__name__} is in the middle of {st.busy}; a key's `<` must not "
@@ -345,7 +269,7 @@ def _end(h: Any, st: _State, subject: Any, entry: Entry, also: Any = None, poppe
     """
     st.history.append(entry)
     st.record.append(entry)
-    c0 = _tally()
+    c0 = tally()
     try:
         _verify(h, st, subject, also, popped)
     except HeapError:
@@ -353,22 +277,9 @@ def _end(h: Any, st: _State, subject: Any, entry: Entry, also: Any = None, poppe
     except Exception:
         st.force = True  # the next operation checks everything
     finally:
-        _untally(c0)
+        untally(c0)
         st.busy = None
         st.ver = h._ver
-
-
-def _tally() -> int:
-    """The auditor's comparison count now (0 without an auditor loaded)."""
-    aud = sys.modules.get("heapkit.audit")
-    return 0 if aud is None else int(aud._COUNT)
-
-
-def _untally(c0: int) -> None:
-    """Forget the comparisons made since ``_tally`` returned ``c0``: they were the checker's."""
-    aud = sys.modules.get("heapkit.audit")
-    if aud is not None:
-        aud._COUNT = c0
 
 
 def _verify(h: Any, st: _State, subject: Any, also: Any, popped: Any) -> None:
@@ -389,7 +300,7 @@ def _verify(h: Any, st: _State, subject: Any, also: Any, popped: Any) -> None:
     if also is not None and not report.problems:
         report.run(also._survey)
     if report.problems:
-        raise _failure(h, st, report)
+        raise failure(h, st, report)
 
 
 def _popped_minimum(report: Report, h: Any, popped: Any) -> None:
@@ -405,7 +316,7 @@ def _abort(h: Any, st: _State, exc: BaseException) -> None:
     op = st.busy
     st.touched = _NOTHING
     report = Report()
-    c0 = _tally()
+    c0 = tally()
     try:
         if isinstance(exc, HeapError):
             if h._ver != st.ver_before:
@@ -419,11 +330,11 @@ def _abort(h: Any, st: _State, exc: BaseException) -> None:
             except Exception:
                 st.force = True
     finally:
-        _untally(c0)
+        untally(c0)
         st.busy = None
         st.ver = h._ver
     if report.problems:
-        raise _failure(h, st, report) from exc
+        raise failure(h, st, report) from exc
 
 
 class _Checking:
@@ -472,11 +383,11 @@ class _Checking:
         top = None
         try:
             if h._n:
-                c0 = _tally()
+                c0 = tally()
                 try:
                     top = h.peek()  # which entry the pop takes, for the history (not counted)
                 finally:
-                    _untally(c0)
+                    untally(c0)
             kv = sup.pop()
         except BaseException as exc:
             _abort(self, st, exc)
@@ -579,12 +490,12 @@ def _inner_meld(h: Any, other: Any) -> None:
     if st.busy != "extend" or st.touched is not _PENDING:
         return
     report = Report()
-    c0 = _tally()
+    c0 = tally()
     try:
         report.run(other._survey)
     finally:
-        _untally(c0)
+        untally(c0)
     if report.problems:
-        raise _failure(h, st, report)
+        raise failure(h, st, report)
     st.touched = h._touched("meld", other) if _valid(h, "meld", other) else _NOTHING
     st.subject = other
