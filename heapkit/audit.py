@@ -189,7 +189,8 @@ def _make_methods(base: type) -> dict[str, Any]:
     b_push, b_pop, b_extend = base.push, base.pop, base.extend  # type: ignore[attr-defined]
     b_dec, b_chg, b_rem = base.decrease_key, base.change_key, base.remove  # type: ignore[attr-defined]
     b_meld, b_clear, b_reset, b_copy = base.meld, base.clear, base._reset, base.__copy__  # type: ignore[attr-defined]
-    b_setstate, b_repr = base.__setstate__, base.__repr__  # type: ignore[attr-defined]
+    b_setstate: Any = base.__setstate__  # type: ignore[attr-defined]
+    b_repr: Any = base.__repr__
 
     def push(self: Any, key: Any, value: Any) -> Any:
         st = _live(self)

@@ -56,12 +56,12 @@ def internal(h: Any, depth: int) -> bool:
 
 def tally() -> int:
     """The auditor's comparison count now (0 without an auditor loaded)."""
-    aud = sys.modules.get("heapkit.audit")
+    aud: Any = sys.modules.get("heapkit.audit")
     return 0 if aud is None else int(aud._COUNT)
 
 
 def untally(c0: int) -> None:
-    """Forget the comparisons made since ``_tally`` returned ``c0``: they were the checker's."""
-    aud = sys.modules.get("heapkit.audit")
+    """Forget the comparisons made since ``tally`` returned ``c0``: they were the checker's."""
+    aud: Any = sys.modules.get("heapkit.audit")
     if aud is not None:
         aud._COUNT = c0
