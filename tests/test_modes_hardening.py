@@ -3,9 +3,6 @@ entry or a result, leave no heap stuck, and keep a kind's own ordering objects."
 
 from __future__ import annotations
 
-import os
-import subprocess
-import sys
 from pathlib import Path
 from typing import Any
 
@@ -13,7 +10,7 @@ import pytest
 
 import heapkit
 from heapkit import LazyHeap, PairingHeap, audit, checked
-from tests.kinds import NAMES, make, monotone
+from tests.kinds import NAMES, make, monotone, run_python
 
 ROOT = Path(__file__).resolve().parent.parent
 ORDERED = [n for n in NAMES if not monotone(n)]  # radix takes ints only
@@ -139,13 +136,6 @@ def test_an_audited_pairing_heap_whose_meld_failed_goes_on() -> None:
     assert led.phi_end == pytest.approx(heapkit.check(a).potential)
 
 
-def _python(code: str, debug: str) -> subprocess.CompletedProcess[str]:
-    env = {**os.environ, "HEAPKIT_DEBUG": debug, "PYTHONPATH": str(ROOT)}
-    return subprocess.run(
-        [sys.executable, "-c", code], env=env, capture_output=True, text=True, timeout=300, check=False
-    )
-
-
 def test_copies_and_pickles_under_heapkit_debug_audit_work_on_every_kind() -> None:
     code = (
         "import copy, pickle, heapkit\n"
@@ -158,7 +148,7 @@ def test_copies_and_pickles_under_heapkit_debug_audit_work_on_every_kind() -> No
         "        heapkit.check(c)\n"
         "        print(name, [c.pop()[0] for _ in range(len(c))])\n"
     )
-    out = _python(code, "audit")
+    out = run_python(code, "audit")
     assert out.returncode == 0, out.stderr
     lines = out.stdout.splitlines()
     assert len(lines) == 3 * len(NAMES)
@@ -207,7 +197,7 @@ def test_audit_refuses_a_bad_top_before_anything_happens(top: Any) -> None:
 
 
 def test_heapkit_debug_with_a_non_ascii_digit_warns_and_is_ignored() -> None:
-    out = _python("import heapkit; print(type(heapkit.new('pairing')).__name__)", "check:²")
+    out = run_python("import heapkit; print(type(heapkit.new('pairing')).__name__)", "check:²")
     assert out.returncode == 0, out.stderr
     assert out.stdout.strip() == "PairingHeap"
     assert "ignoring unknown value 'check:²'" in out.stderr

@@ -7,10 +7,8 @@ from __future__ import annotations
 import gc
 import logging
 import math
-import os
 import random
 import statistics
-import subprocess
 import sys
 from pathlib import Path
 from typing import Any
@@ -21,21 +19,14 @@ import heapkit
 from heapkit import PairingHeap, audit, checked
 from heapkit import audit as auditing
 from heapkit.ledger import Ledger
-from tests.kinds import NAMES, make, monotone
+from tests.kinds import NAMES, make, monotone, run_python
 
 ROOT = Path(__file__).resolve().parent.parent
 
 
-def _python(code: str, debug: str) -> subprocess.CompletedProcess[str]:
-    env = {**os.environ, "HEAPKIT_DEBUG": debug, "PYTHONPATH": str(ROOT)}
-    return subprocess.run(
-        [sys.executable, "-c", code], env=env, capture_output=True, text=True, timeout=300, check=False
-    )
-
-
 def test_heapkit_debug_says_once_at_warning_what_it_switched_on() -> None:
     code = "import heapkit\nfor _ in range(5): heapkit.new('pairing').push(1, 'a')\n"
-    out = _python(code, "check:10,audit")
+    out = run_python(code, "check:10,audit")
     assert out.returncode == 0, out.stderr
     said = [line for line in out.stderr.splitlines() if "on for every heap" in line]
     assert said == [
@@ -62,7 +53,7 @@ def test_set_debug_switches_modes_from_code(caplog: pytest.LogCaptureFixture) ->
         assert "checked mode (every 2nd operation) is on" in caplog.text
         h = heapkit.new("binary")
         assert "[checked every 2]" in repr(h)
-        with pytest.raises(ValueError, match="unknown value 'CHECK'.*did you mean 'check'"):
+        with pytest.raises(ValueError, match=r"unknown value 'CHECK'.*did you mean 'check'"):
             heapkit.set_debug("CHECK")
         assert "[checked every 2]" in repr(heapkit.new("binary"))  # a refused string changes nothing
     finally:
@@ -204,7 +195,7 @@ def test_a_collector_reports_once_at_exit_with_the_heaps_still_alive() -> None:
         "keep = [heapkit.new('pairing') for _ in range(3)]\n"
         "for h in keep: h.push(1, 'a')\n"
     )
-    out = _python(code, "audit")
+    out = run_python(code, "audit")
     assert out.returncode == 0, out.stderr
     assert out.stderr.count("audit of") == 1
     assert "audit of pairing (3 heaps combined): 3 operation(s)" in out.stderr

@@ -5,9 +5,12 @@ The modules, one idea each:
 * :mod:`~heapkit.contracts.report`: ``check`` and the ``Report`` a kind's
   ``_survey`` fills in;
 * :mod:`~heapkit.contracts.mode`: ``checked`` / ``unchecked`` (the checking
-  layer, incremental checks, the re-entrancy guard);
-* :mod:`~heapkit.contracts.history`: the operation history and its replay;
-* :mod:`~heapkit.contracts.switch`: ``HEAPKIT_DEBUG``;
+  layer, incremental checks);
+* :mod:`~heapkit.contracts.guard`: the re-entrancy guard, and the checker's
+  comparisons kept out of the auditor's count;
+* :mod:`~heapkit.contracts.history`: the operation history, its replay and
+  the ``HistoryError`` a failure raises;
+* :mod:`~heapkit.contracts.switch`: ``HEAPKIT_DEBUG`` and ``set_debug``;
 * :mod:`~heapkit.contracts.dot`: ``to_dot``.
 """
 

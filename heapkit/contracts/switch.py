@@ -21,7 +21,7 @@ from typing import Any
 from heapkit import _core
 from heapkit.contracts.mode import checked
 
-__all__ = ["ACCEPTED", "parse", "set_debug"]
+__all__ = ["ACCEPTED", "describe", "parse", "set_debug"]
 
 ACCEPTED = "check, check:N (N a whole number of at least 1), audit"
 
@@ -32,7 +32,7 @@ MODES: list[tuple[str, int]] = []
 
 
 def parse(text: str) -> tuple[list[tuple[str, int]], list[str]]:
-    """The modes named by a ``HEAPKIT_DEBUG`` value, in order, and the parts not understood.
+    """The modes named by a ``HEAPKIT_DEBUG`` value, in order, and the parts not understood.  O(len).
 
     >>> parse("check:10, audit")
     ([('check', 10), ('audit', 0)], [])
@@ -66,7 +66,7 @@ def _hint(part: str) -> str:
 
 
 def describe(modes: list[tuple[str, int]]) -> str:
-    """What ``modes`` switch on, in words.
+    """What ``modes`` switch on, in words.  O(len(modes)).
 
     >>> describe([('check', 10), ('audit', 0)])
     'checked mode (every 10th operation) and the audit (a ledger per heap)'
