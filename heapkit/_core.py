@@ -482,17 +482,6 @@ class HeapBase(Generic[K, V]):
         return new  # type: ignore[no-any-return]
 
 
-def mode_repr(text: str, tag: str) -> str:
-    """A heap's ``repr`` with a mode's tag added: ``<X n=1 ...>`` -> ``<X n=1 ... [tag]>``.
-
-    >>> mode_repr(mode_repr("<PairingHeap empty>", "audited"), "checked")
-    '<PairingHeap empty [audited, checked]>'
-    """
-    if text.endswith("]>"):
-        return f"{text[:-2]}, {tag}]>"
-    return f"{text[:-1]} [{tag}]>"
-
-
 class LeafHandle(Generic[K, V]):
     """Base of handles that are not the kind's node (they point at it)."""
 

@@ -29,9 +29,9 @@ from collections.abc import Callable
 from typing import Any
 
 from heapkit import _core
-from heapkit._core import HeapBase, Wrap, mode_repr
+from heapkit._core import HeapBase, Wrap
 from heapkit.audit_reports import Collector, attach, configure, detach, flush
-from heapkit.contracts.report import kind_name
+from heapkit.contracts.report import kind_name, mode_repr
 from heapkit.ledger import OPS, Ledger
 
 __all__ = ["Collector", "Counted", "attach", "audit", "configure", "detach", "flush"]

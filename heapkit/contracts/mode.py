@@ -17,12 +17,11 @@ per operation, and a heap that only grows is still checked in full each time
 it doubles).  Kinds without the hooks get a full check each time.  An operation
 that raises from a key's ``<`` is followed by a full check.
 
-A completed operation is never turned into a failure that loses its result:
-if a key's ``<`` raises while the layer verifies an operation that already
-took effect, the operation's result is returned and the heap is checked in
-full at the next operation (the check is deferred, not skipped).  Only a
-broken rule (``HistoryError``) is raised after the fact.  The comparisons the
-layer makes are its own: an audit stacked above it does not count them.
+A completed operation keeps its result: if a key's ``<`` raises while the
+layer verifies an operation that took effect, the result is returned and the
+full check is deferred to the next operation; only a broken rule
+(``HistoryError``) is raised after the fact.  The layer's own comparisons are
+kept out of an audit's count.
 """
 
 from __future__ import annotations
@@ -30,10 +29,10 @@ from __future__ import annotations
 from collections import deque
 from typing import Any, TypeVar
 
-from heapkit._core import HeapBase, mode_repr
+from heapkit._core import HeapBase
 from heapkit.contracts.guard import internal, tally, untally
 from heapkit.contracts.history import Entry, failure
-from heapkit.contracts.report import Report, check
+from heapkit.contracts.report import Report, check, mode_repr
 from heapkit.errors import HeapError
 
 __all__ = ["checked", "unchecked"]
@@ -262,10 +261,9 @@ def _outside(h: Any, st: _State) -> None:
 def _end(h: Any, st: _State, subject: Any, entry: Entry, also: Any = None, popped: Any = _NOTHING) -> None:
     """Finish a wrapped operation: record it, then verify what is due.
 
-    The guard stays up while the checks compare keys: a meddling key must not
-    change the heap under the survey either.  The operation has taken effect:
-    if a key's ``<`` raises during the verification, the check is deferred to
-    the next operation (a full one) and the caller still gets the result.
+    The guard stays up while the checks compare keys.  The operation has taken
+    effect: if a key's ``<`` raises in the checks, a full check is due at the
+    next operation and the caller still gets the result.
     """
     st.history.append(entry)
     st.record.append(entry)
