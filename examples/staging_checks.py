@@ -13,7 +13,10 @@ What to switch on in staging (production runs the same code with all of it off):
    imported).  Every heap it makes then comes checked (every 100th operation) and audited
    for its whole life; each heap's ledger is reported when the heap goes away, to the
    function given to ``heapkit.audit.configure(report=...)`` (default: the summary is
-   logged on the ``heapkit.audit`` logger).  See :func:`env_staging_shift`.
+   logged on the ``heapkit.audit`` logger; ``report=heapkit.audit.Collector(at_exit=True)``
+   gives one summary per kind instead of one per heap).  What is on is said once on the
+   ``heapkit`` logger; ``heapkit.set_debug("check:100,audit")`` does the same from code.
+   See :func:`env_staging_shift`.
 2. One queue, in code: ``heapkit.checked(q, every=10)`` verifies what every 10th
    operation touched (a broken rule raises ``InvariantError`` with the last operations);
    ``with heapkit.audit(q, keep="totals") as ledger:`` keeps flat memory on long runs, then
@@ -113,6 +116,8 @@ def staging_shift(
     Returns the served keys and the mill desk's ledger; raises ``InvariantError`` if a
     rule breaks and ``BoundExceededError`` if an operation exceeds its kind's bound.
     """
+    # Checked mode first, then the audit: the audit counts only the operations' own
+    # comparisons, so the order of the two does not change its figures.
     mill = heapkit.checked(heapkit.new(kind), every=every)
     store = heapkit.checked(heapkit.new(kind), every=every)
     with heapkit.audit(mill, keep="totals") as ledger, heapkit.audit(store, keep="totals") as store_ledger:

@@ -48,7 +48,7 @@ from heapkit.protocol import Handle, Heap, Shape
 if TYPE_CHECKING:
     from heapkit.audit import audit
     from heapkit.concurrent import Asynchronous, Blocking, asynchronous, blocking
-    from heapkit.contracts import check, checked, to_dot, unchecked
+    from heapkit.contracts import HistoryError, check, checked, set_debug, to_dot, unchecked
     from heapkit.threads import Locked, locked
 
 __all__ = [
@@ -67,6 +67,7 @@ __all__ = [
     "Handle",
     "Heap",
     "HeapError",
+    "HistoryError",
     "HollowHeap",
     "InvalidHandleError",
     "InvariantError",
@@ -86,6 +87,7 @@ __all__ = [
     "checked",
     "locked",
     "new",
+    "set_debug",
     "to_dot",
     "unchecked",
 ]
@@ -97,6 +99,8 @@ _LAZY = {
     "audit": "heapkit.audit",
     "check": "heapkit.contracts",
     "checked": "heapkit.contracts",
+    "HistoryError": "heapkit.contracts",
+    "set_debug": "heapkit.contracts",
     "to_dot": "heapkit.contracts",
     "unchecked": "heapkit.contracts",
     "Locked": "heapkit.threads",

@@ -25,18 +25,16 @@ them in; bound = ``k * _bound("push", n + k) + _bound("meld", n + k)``.
 
 from __future__ import annotations
 
-import logging
-import weakref
 from collections.abc import Callable
 from typing import Any
 
 from heapkit import _core
 from heapkit._core import HeapBase, Wrap
+from heapkit.audit_reports import Collector, attach, configure, detach, flush
+from heapkit.contracts.report import kind_name, mode_repr
 from heapkit.ledger import OPS, Ledger
 
-__all__ = ["Counted", "attach", "audit", "configure", "detach"]
-
-_log = logging.getLogger("heapkit.audit")
+__all__ = ["Collector", "Counted", "attach", "audit", "configure", "detach", "flush"]
 
 #: Comparisons made by every :class:`Counted` so far (read before and after an operation).
 _COUNT = 0
@@ -95,10 +93,6 @@ def _counting(inner: Wrap | None) -> Wrap:
     return w
 
 
-def _unwrap(o: Any, key: Any) -> Any:
-    return o.inner if type(o) is Counted else o
-
-
 class _State:
     """Per-heap audit state, in ``heap._ext["audit"]``."""
 
@@ -143,6 +137,12 @@ def _drop_cache(heap: Any) -> None:
         ext.pop("phi", None)
 
 
+def _failed(heap: Any, st: _State) -> None:
+    """An operation raised: forget the cached potential and the one remembered from the last record."""
+    _drop_cache(heap)
+    st.last_ver = -1
+
+
 def _record(
     heap: Any, st: _State, code: int, n: int, actual: int, phi0: float, bound: float, c0: int
 ) -> None:
@@ -162,8 +162,7 @@ def _measured(heap: Any, st: _State, op: str, target: Any, call: Callable[..., A
     try:
         out = call(heap, *args)
     except BaseException:
-        _drop_cache(heap)
-        st.last_ver = -1
+        _failed(heap, st)
         raise
     finally:
         st.busy = False
@@ -190,6 +189,8 @@ def _make_methods(base: type) -> dict[str, Any]:
     b_push, b_pop, b_extend = base.push, base.pop, base.extend  # type: ignore[attr-defined]
     b_dec, b_chg, b_rem = base.decrease_key, base.change_key, base.remove  # type: ignore[attr-defined]
     b_meld, b_clear, b_reset, b_copy = base.meld, base.clear, base._reset, base.__copy__  # type: ignore[attr-defined]
+    b_setstate: Any = base.__setstate__  # type: ignore[attr-defined]
+    b_repr: Any = base.__repr__
 
     def push(self: Any, key: Any, value: Any) -> Any:
         st = _live(self)
@@ -226,7 +227,7 @@ def _make_methods(base: type) -> dict[str, Any]:
         try:
             b_meld(self, other)
         except BaseException:
-            _drop_cache(self)
+            _failed(self, st)
             _drop_cache(other)
             raise
         finally:
@@ -253,7 +254,7 @@ def _make_methods(base: type) -> dict[str, Any]:
             try:
                 b_meld(self, tmp)
             except BaseException:
-                _drop_cache(self)
+                _failed(self, st)
                 raise
             finally:
                 st.busy = False
@@ -282,17 +283,37 @@ def _make_methods(base: type) -> dict[str, Any]:
         if st is not None:
             self._wrap = st.wrap
 
+    # A copy is a new heap: plain, or audited by HEAPKIT_DEBUG (then this class's
+    # __setstate__ counted its entries).  A plain one gets its kind's own ordering objects.
     def __copy__(self: Any) -> Any:
         new = b_copy(self)
-        new._map_order(_unwrap)
+        if _state(new) is None:
+            new._rewrap(new._wrap)
         return new
 
+    # Unpickling, deepcopy and copy fill an audited heap (HEAPKIT_DEBUG=audit) behind the
+    # auditor's back: count the entries' comparisons and measure the potential afresh.
+    def __setstate__(self: Any, state: Any) -> None:
+        b_setstate(self, state)
+        st = _state(self)
+        if st is not None:
+            wrap = st.wrap
+            self._map_order(lambda o, key: o if type(o) is Counted else wrap(key, o))
+            _failed(self, st)
+
+    def __repr__(self: Any) -> str:
+        text = b_repr(self)
+        name = type(self).__name__
+        if text.startswith(f"<{name}") and name.startswith("Audited"):
+            text = f"<{name[7:]}{text[len(name) + 1:]}"
+        return text if _state(self) is None else mode_repr(text, "audited")
+
     return {
-        "push": push, "pop": pop, "extend": extend, "meld": meld, "clear": clear,
+        "__repr__": __repr__, "push": push, "pop": pop, "extend": extend, "meld": meld, "clear": clear,
         "decrease_key": _handle_op("decrease_key", b_dec),
         "change_key": _handle_op("change_key", b_chg),
         "remove": _handle_op("remove", b_rem),
-        "_reset": _reset, "__copy__": __copy__,
+        "_reset": _reset, "__copy__": __copy__, "__setstate__": __setstate__,
     }
 
 
@@ -315,14 +336,16 @@ def _audited_class(base: type) -> type:
     return cls
 
 
-def _kind_name(heap: Any) -> str:
-    for c in type(heap).__mro__:
-        if "KIND" in c.__dict__:
-            return str(c.__dict__["KIND"])
-    return type(heap).__name__  # pragma: no cover
+def _validate(where: str, keep: object, top: object) -> None:
+    """Refuse a bad option before anything happens (not at the first audited operation)."""
+    if keep not in ("all", "totals"):
+        raise ValueError(f"{where}: keep must be 'all' or 'totals', got {keep!r}")
+    if not isinstance(top, int) or isinstance(top, bool) or top < 1:
+        raise ValueError(f"{where}: top must be an integer of at least 1, got {top!r}")
 
 
 def _begin(heap: Any, keep: str, top: int) -> Ledger:
+    _validate("audit", keep, top)
     if not isinstance(heap, HeapBase):
         raise TypeError(f"audit: expected a heapkit heap, got {type(heap).__name__}")
     return _begin_on(heap, keep, top)
@@ -332,8 +355,8 @@ def _begin_on(heap: Any, keep: str, top: int) -> Ledger:
     cls = type(heap)
     missing = [h for h in _HOOKS if not callable(getattr(cls, h, None))]
     if missing:
-        raise TypeError(f"audit: kind {_kind_name(heap)!r} lacks the audit hooks {', '.join(missing)}")
-    led = Ledger(_kind_name(heap), cls.COST_UNIT, cls.PHI_C, keep=keep, top=top)
+        raise TypeError(f"audit: kind {kind_name(heap)!r} lacks the audit hooks {', '.join(missing)}")
+    led = Ledger(kind_name(heap), cls.COST_UNIT, cls.PHI_C, keep=keep, top=top)
     st = _state(heap)
     if st is None:
         st = _State(cls, heap._wrap)
@@ -341,8 +364,9 @@ def _begin_on(heap: Any, keep: str, top: int) -> Ledger:
             heap._ext = {}
         heap._ext.pop("phi", None)
         heap._ext["audit"] = st
-        heap._map_order(lambda o, key: Counted(o))
-        heap._wrap = st.wrap
+        heap._wrap = wrap = st.wrap
+        # As a push under the audit makes them (so lazy holds no bare key beside an _Ord).
+        heap._map_order(lambda o, key: wrap(key, o))
         heap.__class__ = _audited_class(cls)
     led.start(heap._phi())
     st.ledgers = (*st.ledgers, led)
@@ -362,8 +386,7 @@ def _end(heap: Any, led: Ledger) -> None:
     ext.pop("phi", None)
     if not ext:
         heap._ext = None
-    heap._map_order(_unwrap)
-    heap._wrap = st.saved_wrap
+    heap._rewrap(st.saved_wrap)  # the kind's own ordering objects (lazy wraps non-native keys)
     if type(heap) is _CLASSES.get(st.base):
         heap.__class__ = st.base
     # Otherwise another mode switched the class after this one: the auditing layer
@@ -388,57 +411,6 @@ class _Session:
             _end(self.heap, self.ledger)
 
 
-_REPORT: Callable[[Ledger], None] | None = None
-_KEEP = "totals"
-
-
-def configure(*, report: Callable[[Ledger], None] | None = None, keep: str = "totals") -> None:
-    """Where ``attach``-ed audits report when their heap goes away (or at interpreter exit).
-
-    ``report``: called with the :class:`Ledger`; None logs the summary on the
-    ``heapkit.audit`` logger (WARNING if a bound was exceeded, INFO otherwise).
-    ``keep``: what attached audits keep (``"totals"`` by default, flat memory).
-
-    >>> configure(report=None, keep="totals")
-    """
-    global _REPORT, _KEEP
-    if keep not in ("all", "totals"):
-        raise ValueError(f"configure: keep must be 'all' or 'totals', got {keep!r}")
-    _REPORT = report
-    _KEEP = keep
-
-
-def _report(led: Ledger) -> None:
-    if _REPORT is not None:
-        _REPORT(led)
-        return
-    level = logging.WARNING if led.violation_count else logging.INFO
-    _log.log(level, "%s", led.summary())
-
-
-def attach(heap: Any) -> Ledger:
-    """Audit ``heap`` for the rest of its life; report through ``configure`` when it goes away.
-
-    Used by ``HEAPKIT_DEBUG=audit``.  O(n) once (wrapping the entries).
-
-    >>> from heapkit import PairingHeap
-    >>> seen = []
-    >>> configure(report=seen.append)
-    >>> h = PairingHeap(); led = attach(h); _ = h.push(1, 'a')
-    >>> del h; [x.count for x in seen]
-    [1]
-    >>> configure(report=None)
-    """
-    led = _begin(heap, _KEEP, 16)
-    weakref.finalize(heap, _report, led)
-    return led
-
-
-def detach(heap: Any, ledger: Ledger) -> None:
-    """Stop an ``attach``-ed audit now (its report still comes when the heap goes away).  O(n)."""
-    _end(heap, ledger)
-
-
 class Auditor:
     """``heapkit.audit``: call it on a heap for a context manager; ``attach`` and ``configure`` too.
 
@@ -453,9 +425,12 @@ class Auditor:
     attach = staticmethod(attach)
     detach = staticmethod(detach)
     configure = staticmethod(configure)
+    flush = staticmethod(flush)
+    Collector = Collector
 
     def __call__(self, heap: Any, *, keep: str = "all", top: int = 16) -> _Session:
         """Audit ``heap`` in a ``with`` block (``keep="totals"`` for long runs).  O(n) to enter, leave."""
+        _validate("audit", keep, top)
         return _Session(heap, keep, top)
 
 

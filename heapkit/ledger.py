@@ -43,8 +43,19 @@ _W = 7  # numbers per operation in the flat record array
 SLACK = 1e-9
 
 
+def _num(x: float) -> str:
+    """A float for people: 4 significant digits, no ``-0``."""
+    text = f"{x:.4g}"
+    return "0" if text == "-0" else text
+
+
 class Record(NamedTuple):
-    """One audited operation; ``step`` is its number in the audit (from 0)."""
+    """One audited operation; ``step`` is its number in the audit (from 0).
+
+    >>> Record(3, "pop", 10, 4, 12.123456, 9.87654321, 1.75308679, 11.0, 6)  # doctest: +NORMALIZE_WHITESPACE
+    Record(step=3, op='pop', n=10, actual=4, phi_before=12.12, phi_after=9.877,
+           amortized=1.753, bound=11, comparisons=6)
+    """
 
     step: int
     op: str
@@ -55,6 +66,12 @@ class Record(NamedTuple):
     amortized: float
     bound: float
     comparisons: int
+
+    def __repr__(self) -> str:
+        return (f"Record(step={self.step}, op={self.op!r}, n={self.n}, actual={self.actual}, "
+                f"phi_before={_num(self.phi_before)}, phi_after={_num(self.phi_after)}, "
+                f"amortized={_num(self.amortized)}, bound={_num(self.bound)}, "
+                f"comparisons={self.comparisons})")
 
 
 class _Tally:
@@ -81,6 +98,16 @@ class _Tally:
         if n >= self.max_n:
             self.max_n = n
             self.bound_at_max_n = bound
+
+    def merge(self, other: _Tally) -> None:
+        """Add another tally of the same operation name (another heap's)."""
+        self.count += other.count
+        self.total += other.total
+        self.comparisons += other.comparisons
+        self.costs.update(other.costs)
+        self.amortized_max = max(self.amortized_max, other.amortized_max)
+        if other.max_n >= self.max_n:
+            self.max_n, self.bound_at_max_n = other.max_n, other.bound_at_max_n
 
     def p99(self) -> int:
         """Nearest-rank 99th percentile of the actual costs."""
@@ -143,6 +170,7 @@ class Ledger:
         self.phi_c = float(phi_c)
         self.keep = keep
         self.top = top
+        self.heaps = 1  # how many heaps' audits this ledger combines (see __add__)
         self.count = 0
         self.phi_start: float | None = None
         self.phi_end: float | None = None
@@ -158,6 +186,67 @@ class Ledger:
         self._tallies: dict[int, _Tally] = {}
         self._worst: list[tuple[int, int, Record]] = []
         self._kept_bad: list[Record] = []
+
+    def __repr__(self) -> str:
+        heaps = "" if self.heaps == 1 else f", heaps={self.heaps}"
+        return (f"<Ledger {self.kind}: {self.count} operation(s){heaps}, keep={self.keep!r}, "
+                f"{self.violation_count} over bound>")
+
+    def __add__(self, other: Ledger) -> Ledger:
+        """The two audits combined, as one ledger of their kind.  O(records) or O(totals).
+
+        Same kind (cost unit and ``c``) only; both ``keep="all"`` keep every record
+        (``other``'s after this one's), otherwise the totals.  ``sum(ledgers)`` works.
+
+        >>> from heapkit import PairingHeap
+        >>> from heapkit.audit import audit
+        >>> a, b = PairingHeap(), PairingHeap()
+        >>> with audit(a) as la, audit(b) as lb:
+        ...     _ = a.push(1, 'a'); _ = b.push(2, 'b'); _ = b.pop()
+        >>> la + lb
+        <Ledger pairing: 3 operation(s), heaps=2, keep='all', 0 over bound>
+        """
+        if not isinstance(other, Ledger):
+            return NotImplemented
+        if (self.kind, self.unit, self.phi_c) != (other.kind, other.unit, other.phi_c):
+            raise TypeError(
+                f"Ledger addition: ledgers of different kinds ({self.kind!r} and {other.kind!r}) "
+                "do not combine; combine them per kind"
+            )
+        both_all = self.keep == other.keep == "all"
+        out = Ledger(self.kind, self.unit, self.phi_c, keep="all" if both_all else "totals",
+                     top=max(self.top, other.top))
+        out.heaps = self.heaps + other.heaps
+        out.count = self.count + other.count
+        starts = [x for x in (self.phi_start, other.phi_start) if x is not None]
+        ends = [x for x in (self.phi_end, other.phi_end) if x is not None]
+        out.phi_start = sum(starts) if starts else None
+        out.phi_end = sum(ends) if ends else None
+        out.outside = self.outside + other.outside
+        out.phi_min = min(self.phi_min, other.phi_min)
+        out.total_actual = self.total_actual + other.total_actual
+        out.total_amortized = self.total_amortized + other.total_amortized
+        out.total_bound = self.total_bound + other.total_bound
+        out.violation_count = self.violation_count + other.violation_count
+        if both_all:
+            out._rows = self._rows + other._rows
+            out._bad = self._bad + [i + self.count for i in other._bad]
+            return out
+        for led in (self, other):
+            for name, tally in led.tallies().items():
+                mine = out._tallies.setdefault(OPS.index(name), _Tally())
+                mine.merge(tally)
+            for rec in led.worst(led.top):
+                out._worst.append((rec.actual, -rec.step, rec))
+            out._kept_bad.extend(led.violations[: 100 - len(out._kept_bad)])
+        out._worst = heapq.nlargest(out.top, out._worst, key=lambda t: (t[0], t[1]))
+        heapq.heapify(out._worst)
+        return out
+
+    def __radd__(self, other: object) -> Ledger:
+        if other == 0:  # sum(ledgers) starts from 0
+            return self
+        return NotImplemented
 
     # --- recording (called by heapkit.audit) --------------------------------
     def start(self, phi: float) -> None:
@@ -283,7 +372,8 @@ class Ledger:
         >>> print(led.summary().splitlines()[0])
         audit of binary: 1 operation(s); cost in levels an entry moves + 1; c = 1
         """
-        head = (f"audit of {self.kind}: {self.count} operation(s); cost in {self.unit}; "
+        heaps = "" if self.heaps == 1 else f" ({self.heaps} heaps combined)"
+        head = (f"audit of {self.kind}{heaps}: {self.count} operation(s); cost in {self.unit}; "
                 f"c = {self.phi_c:g}")
         cols = ("op", "count", "mean", "p99", "max", "max amort.", "bound@max n", "cmp/op")
         rows = [cols]
@@ -308,8 +398,10 @@ class Ledger:
 
     def _sum_rule(self) -> list[str]:
         c = self.phi_c
-        start = self.phi_start or 0.0
-        end = self.phi_end or 0.0
+        start = (self.phi_start or 0.0) + 0.0  # + 0.0: no "-0.00" in the report
+        end = (self.phi_end or 0.0) + 0.0
+        if abs(end) < 5e-3:
+            end = 0.0
         rhs = self.total_amortized + c * (start - end) + c * self.outside
         cap = self.total_bound + c * (start + max(0.0, self.outside))
         holds = self.total_actual <= cap + SLACK * (1.0 + cap)
@@ -319,40 +411,17 @@ class Ledger:
             f" = {rhs:.2f}",
             f"  guarantee: Σ actual {self.total_actual} ≤ Σ bound {self.total_bound:.2f}"
             f" + c·(Φ start + Φ brought in) = {cap:.2f}: {'holds' if holds else 'FAILS'};"
-            f" lowest Φ seen {self.phi_min if self.count or self.phi_start is not None else 0.0:.2f}",
+            f" lowest Φ seen {_num(self.phi_min if self.count or self.phi_start is not None else 0.0)}",
         ]
 
-    def plot(self, path: Any) -> None:
-        """Write a PNG: actual and amortized cost per operation, and Φ, over the sequence.
+    def plot(self, path: Any, *, max_points: int = 2000) -> None:
+        """Write a PNG: the cost of each operation name in its own panel, then Φ.  O(records).
 
-        Needs matplotlib (``pip install 'heapkit[plot]'``) and ``keep="all"``.
+        Beyond ``max_points`` operations each panel shows, per bucket of
+        consecutive operations, the mean with the p99 and max envelopes, so a
+        staging run of 10^5+ operations stays readable.  Needs matplotlib
+        (``pip install 'heapkit[plot]'``) and ``keep="all"``.
         """
-        try:
-            import matplotlib
+        from heapkit.ledger_plot import plot
 
-            matplotlib.use("Agg")
-            import matplotlib.pyplot as plt
-        except ImportError as exc:
-            raise ImportError(
-                "Ledger.plot needs matplotlib, which heapkit installs with its optional "
-                "extra 'plot': pip install 'heapkit[plot]'"
-            ) from exc
-        if self.keep != "all":
-            raise ValueError("Ledger.plot needs every record; this audit kept only totals")
-        xs = range(self.count)
-        c = self.phi_c
-        actual, phi0, phi1, bound = (self._column(j) for j in (2, 3, 4, 5))
-        amort = [a + c * (q - p) for a, p, q in zip(actual, phi0, phi1, strict=True)]
-        fig, (top, low) = plt.subplots(2, 1, sharex=True, figsize=(10, 6))
-        top.plot(xs, list(actual), lw=0.8, label="actual")
-        top.plot(xs, amort, lw=0.8, label="amortized")
-        top.plot(xs, list(bound), lw=0.8, ls="--", label="bound")
-        top.set_ylabel(self.unit)
-        top.legend(loc="upper right")
-        low.plot(xs, list(phi1), lw=0.8, color="tab:green")
-        low.set_ylabel("Φ after")
-        low.set_xlabel("operation")
-        top.set_title(f"audit of {self.kind}")
-        fig.tight_layout()
-        fig.savefig(path, format="png")
-        plt.close(fig)
+        plot(self, path, max_points)

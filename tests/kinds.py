@@ -2,6 +2,10 @@
 
 from __future__ import annotations
 
+import os
+import subprocess
+import sys
+from pathlib import Path
 from typing import Any
 
 from hypothesis import strategies as st
@@ -32,3 +36,12 @@ PUSH_COMPARES_NOTHING = {"weak": "push appends; the next pop, peek, change_key u
 
 def make(name: str, stable: bool = False, pairs: Any = ()) -> Any:
     return heapkit.KINDS[name](pairs, stable=stable)
+
+
+def run_python(code: str, debug: str) -> subprocess.CompletedProcess[str]:
+    """Run ``code`` in a fresh interpreter with ``HEAPKIT_DEBUG=debug`` (read at import)."""
+    root = Path(__file__).resolve().parent.parent
+    env = {**os.environ, "HEAPKIT_DEBUG": debug, "PYTHONPATH": str(root)}
+    return subprocess.run(
+        [sys.executable, "-c", code], env=env, capture_output=True, text=True, timeout=300, check=False
+    )

@@ -4,9 +4,6 @@ against the full one."""
 
 from __future__ import annotations
 
-import os
-import subprocess
-import sys
 from pathlib import Path
 from typing import Any
 
@@ -16,7 +13,7 @@ import heapkit
 from heapkit import BinaryHeap, DaryHeap, PairingHeap, checked, unchecked
 from heapkit.contracts import HistoryError
 from heapkit.errors import InvariantError
-from tests.kinds import NAMES, PUSH_COMPARES_NOTHING, make, monotone
+from tests.kinds import NAMES, PUSH_COMPARES_NOTHING, make, monotone, run_python
 
 ROOT = Path(__file__).resolve().parent.parent
 
@@ -256,13 +253,6 @@ def test_checked_and_plain_heaps_meld_both_ways(cls: type) -> None:
 
 # --- HEAPKIT_DEBUG ------------------------------------------------------------------
 
-def _python(code: str, debug: str) -> subprocess.CompletedProcess[str]:
-    env = {**os.environ, "HEAPKIT_DEBUG": debug, "PYTHONPATH": str(ROOT)}
-    return subprocess.run(
-        [sys.executable, "-c", code], env=env, capture_output=True, text=True, timeout=120, check=False
-    )
-
-
 def test_heapkit_debug_makes_new_heaps_checked() -> None:
     code = (
         "import heapkit\n"
@@ -277,21 +267,26 @@ def test_heapkit_debug_makes_new_heaps_checked() -> None:
         "except heapkit.InvariantError as e:\n"
         "    print('caught', e.rules)\n"
     )
-    out = _python(code, "check:3, audit")
+    out = run_python(code, "check:3, audit")
     assert out.returncode == 0, out.stderr
     # both modes stack: the audit (attached second) sits above checked mode
     assert out.stdout.split("\n")[:2] == ["3 True audit checked", "caught ('heap-order',)"]
 
 
-def test_heapkit_debug_rejects_unknown_values() -> None:
-    for bad in ("chek", "check:0", "audit:2"):
-        out = _python("import heapkit", bad)
-        assert out.returncode != 0
-        assert f"unknown value {bad!r}" in out.stderr and "accepted: check, check:N" in out.stderr
+def test_heapkit_debug_warns_about_unknown_values_and_ignores_them() -> None:
+    # Issue 13: a typo in the environment must not stop the host program at import.
+    for bad in ("chek", "check:0", "audit:2", "1", "CHECK"):
+        out = run_python("import heapkit; print(type(heapkit.new('pairing')).__name__)", f"{bad}, check:2")
+        assert out.returncode == 0, out.stderr
+        assert f"ignoring unknown value {bad!r}" in out.stderr and "accepted: check, check:N" in out.stderr
+        assert "checked mode (every 2nd operation) is on" in out.stderr
+        assert out.stdout.strip() == "PairingHeap"
+    out = run_python("import heapkit", "CHECK")
+    assert "did you mean 'check'?" in out.stderr
 
 
 def test_without_heapkit_debug_heaps_are_plain() -> None:
-    out = _python("import heapkit; print(type(heapkit.PairingHeap()) is heapkit.PairingHeap)", "")
+    out = run_python("import heapkit; print(type(heapkit.PairingHeap()) is heapkit.PairingHeap)", "")
     assert out.stdout.strip() == "True", out.stderr
 
 
@@ -381,6 +376,6 @@ def test_heaps_heapkit_builds_for_its_own_use_are_left_plain() -> None:
         "layers = [c.__dict__['_layer'] for c in type(h).__mro__ if '_layer' in c.__dict__]\n"
         "print(len(got), *layers, h.pop())\n"
     )
-    out = _python(code, "check,audit")
+    out = run_python(code, "check,audit")
     assert out.returncode == 0, out.stderr
     assert out.stdout.strip() == "0 audit checked (1, 'a')"

@@ -5,19 +5,22 @@ The modules, one idea each:
 * :mod:`~heapkit.contracts.report`: ``check`` and the ``Report`` a kind's
   ``_survey`` fills in;
 * :mod:`~heapkit.contracts.mode`: ``checked`` / ``unchecked`` (the checking
-  layer, incremental checks, the re-entrancy guard);
-* :mod:`~heapkit.contracts.history`: the operation history and its replay;
-* :mod:`~heapkit.contracts.switch`: ``HEAPKIT_DEBUG``;
+  layer, incremental checks);
+* :mod:`~heapkit.contracts.guard`: the re-entrancy guard, and the checker's
+  comparisons kept out of the auditor's count;
+* :mod:`~heapkit.contracts.history`: the operation history, its replay and
+  the ``HistoryError`` a failure raises;
+* :mod:`~heapkit.contracts.switch`: ``HEAPKIT_DEBUG`` and ``set_debug``;
 * :mod:`~heapkit.contracts.dot`: ``to_dot``.
 """
 
 from __future__ import annotations
 
-import heapkit.contracts.switch  # noqa: F401  (reads HEAPKIT_DEBUG once, at import)
 from heapkit.contracts.dot import to_dot
 from heapkit.contracts.history import HistoryError, replay
 from heapkit.contracts.mode import checked, unchecked
 from heapkit.contracts.report import LIMIT, PROTOCOL_RULES, Report, check, problem_prefix
+from heapkit.contracts.switch import set_debug  # reads HEAPKIT_DEBUG once, at import
 
 __all__ = [
     "LIMIT",
@@ -28,6 +31,7 @@ __all__ = [
     "checked",
     "problem_prefix",
     "replay",
+    "set_debug",
     "to_dot",
     "unchecked",
 ]

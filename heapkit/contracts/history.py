@@ -28,17 +28,21 @@ check, so ``HistoryError.replay`` is faithful to the entries and the
 operations; the shape built by the replay may still differ from the
 original's.  Replay starts after the last
 ``outside`` mark.  A key object mutated in place after the fact replays with
-its current value (keys are not copied).
+its current value (keys are not copied): a failure caused by such a key does
+not replay, and the error says so.
 """
 
 from __future__ import annotations
 
+import warnings
 from collections.abc import Callable
 from typing import Any
 
+from heapkit._core import HeapBase
+from heapkit.contracts.report import Report
 from heapkit.errors import InvariantError
 
-__all__ = ["Entry", "HistoryError", "replay"]
+__all__ = ["MUTATED_HINT", "Entry", "HistoryError", "failure", "kind_class", "replay"]
 
 Entry = tuple[Any, ...]
 
@@ -166,11 +170,59 @@ class HistoryError(InvariantError):
         self.start = start
         self.record: list[Entry] = history if record is None else record
         self._factory = factory
+        #: True when the broken rule is one that heapkit's own kind keeps: a key changed in place.
+        self.likely_mutated = False
 
     def replay(self, kind: Target | None = None) -> Any:
         """Run the record again on a fresh heap of ``kind`` (a ``KINDS`` name, a
         class or a factory; None: the failing heap's class and options).
 
-        Returns the heap if no rule breaks.  O(length of the record * n).
+        Returns the heap if no rule breaks; when the failure was likely a key
+        changed in place, that is expected and a ``RuntimeWarning`` says so.
+        O(length of the record * n).
         """
-        return replay(self.record, self._factory if kind is None else kind, start=self.start)
+        heap = replay(self.record, self._factory if kind is None else kind, start=self.start)
+        if self.likely_mutated:
+            warnings.warn(
+                "the replay ran clean: the failure was likely caused by a key changed in place, "
+                "and the record holds the key objects as they are now, so it cannot reproduce it",
+                RuntimeWarning, stacklevel=2,
+            )
+        return heap
+
+
+def kind_class(h: Any) -> type:
+    """The class to rebuild ``h`` from (below every mode layer)."""
+    for c in type(h).__mro__:
+        if issubclass(c, HeapBase) and "_layer" not in c.__dict__:
+            return c
+    return type(h)  # pragma: no cover - a heap always has its kind below
+
+
+#: Rules that compare keys: a stock kind breaks them only when a key changed under it.
+_ORDER_RULES = frozenset(("heap-order", "half-order", "minimum", "min", "min-first", "monotone", "bucket"))
+
+MUTATED_HINT = (
+    "\n  likely cause: a key changed in place after it was pushed (a list, or an object whose "
+    "fields `<` reads), or a `<` that is not a consistent order: heapkit's own kinds keep "
+    "this rule.  Give an entry a new key with change_key and a new key object.  err.history "
+    "lists the last operations; err.replay() reruns the record with the key objects as they "
+    "are now (keys are recorded by reference), so a failure caused by a key changed in place "
+    "cannot be reproduced by it: the replay builds a healthy heap"
+)
+
+
+def failure(h: Any, st: Any, report: Report) -> HistoryError:
+    """The :class:`HistoryError` for checked heap ``h`` (state ``st``) whose check found ``report``."""
+    cls, stable, opts = kind_class(h), h._stable, h._options()
+    text = str(report.error(h, f" after {st.history[-1][0] if st.history else 'enabling'}"))
+    stock = cls.__module__.startswith("heapkit.kinds")  # not a user's subclass
+    mutated = stock and any(r in _ORDER_RULES for r in report.rules)
+    if mutated:
+        text += MUTATED_HINT
+    err = HistoryError(
+        text, tuple(report.problems), tuple(report.rules), list(st.history),
+        lambda: cls(stable=stable, **opts), st.base, list(st.record),
+    )
+    err.likely_mutated = mutated
+    return err

@@ -16,17 +16,23 @@ check outnumber the entries the heap held then: O(1) amortized entries visited
 per operation, and a heap that only grows is still checked in full each time
 it doubles).  Kinds without the hooks get a full check each time.  An operation
 that raises from a key's ``<`` is followed by a full check.
+
+A completed operation keeps its result: if a key's ``<`` raises while the
+layer verifies an operation that took effect, the result is returned and the
+full check is deferred to the next operation; only a broken rule
+(``HistoryError``) is raised after the fact.  The layer's own comparisons are
+kept out of an audit's count.
 """
 
 from __future__ import annotations
 
-import sys
 from collections import deque
 from typing import Any, TypeVar
 
 from heapkit._core import HeapBase
-from heapkit.contracts.history import Entry, HistoryError
-from heapkit.contracts.report import Report, check
+from heapkit.contracts.guard import internal, tally, untally
+from heapkit.contracts.history import Entry, failure
+from heapkit.contracts.report import Report, check, mode_repr
 from heapkit.errors import HeapError, refuse_nan, refuse_nan_pairs
 from heapkit.protocol import Heap
 
@@ -202,39 +208,6 @@ def _layer(cls: type) -> type:
     return sub
 
 
-def _kind_class(h: Any) -> type:
-    """The class to rebuild ``h`` from (below every mode layer)."""
-    for c in type(h).__mro__:
-        if issubclass(c, HeapBase) and "_layer" not in c.__dict__:
-            return c
-    return type(h)  # pragma: no cover - a heap always has its kind below
-
-
-def _failure(h: Any, st: _State, report: Report) -> HistoryError:
-    cls, stable, opts = _kind_class(h), h._stable, h._options()
-    base = report.error(h, f" after {st.history[-1][0] if st.history else 'enabling'}")
-    return HistoryError(
-        str(base), tuple(report.problems), tuple(report.rules), list(st.history),
-        lambda: cls(stable=stable, **opts), st.base, list(st.record),
-    )
-
-
-def _internal(h: Any, depth: int) -> bool:
-    """Is the wrapper's caller the heap's own code (not a key's ``<``)?
-
-    Frames of another mode's layer stacked above this one (the auditor's) are
-    passed over: their caller is the one that counts.
-    """
-    # Frames: 0 _internal, 1 _begin, 2 the wrapper (3 with _rekey), then its caller.
-    mro = type(h).__mro__
-    above = {c.__module__ for c in mro if c.__dict__.get("_layer") not in (None, MODE)}
-    frame: Any = sys._getframe(depth + 1)
-    while frame is not None and frame.f_globals.get("__name__") in above:
-        frame = frame.f_back
-    mod = None if frame is None else frame.f_globals.get("__name__")
-    return any(c.__module__ == mod for c in mro if "_layer" not in c.__dict__)
-
-
 def _begin(h: Any, op: str, handle: Any, depth: int = 2) -> _State | None:
     """Start a wrapped operation; None means: an internal call, pass it through.
 
@@ -242,7 +215,7 @@ def _begin(h: Any, op: str, handle: Any, depth: int = 2) -> _State | None:
     """
     st: _State = h._ext[MODE]
     if st.busy is not None:
-        if _internal(h, depth):
+        if internal(h, depth):
             return None
         raise RuntimeError(
             f"{op}: {type(h).__name__} is in the middle of {st.busy}; a key's `<` must not "
@@ -289,14 +262,21 @@ def _outside(h: Any, st: _State) -> None:
 def _end(h: Any, st: _State, subject: Any, entry: Entry, also: Any = None, popped: Any = _NOTHING) -> None:
     """Finish a wrapped operation: record it, then verify what is due.
 
-    The guard stays up while the checks compare keys: a meddling key must not
-    change the heap under the survey either.
+    The guard stays up while the checks compare keys.  The operation has taken
+    effect: if a key's ``<`` raises in the checks, a full check is due at the
+    next operation and the caller still gets the result.
     """
     st.history.append(entry)
     st.record.append(entry)
+    c0 = tally()
     try:
         _verify(h, st, subject, also, popped)
+    except HeapError:
+        raise
+    except Exception:
+        st.force = True  # the next operation checks everything
     finally:
+        untally(c0)
         st.busy = None
         st.ver = h._ver
 
@@ -319,7 +299,7 @@ def _verify(h: Any, st: _State, subject: Any, also: Any, popped: Any) -> None:
     if also is not None and not report.problems:
         report.run(also._survey)
     if report.problems:
-        raise _failure(h, st, report)
+        raise failure(h, st, report)
 
 
 def _popped_minimum(report: Report, h: Any, popped: Any) -> None:
@@ -330,28 +310,41 @@ def _popped_minimum(report: Report, h: Any, popped: Any) -> None:
 
 def _abort(h: Any, st: _State, exc: BaseException) -> None:
     """An operation raised: heapkit's own errors must leave the heap as it was,
-    any other exception must leave every rule intact (a full check)."""
+    any other exception must leave every rule intact (a full check; if the key's
+    ``<`` raises again there, the full check is deferred to the next operation)."""
     op = st.busy
     st.touched = _NOTHING
     report = Report()
+    c0 = tally()
     try:
         if isinstance(exc, HeapError):
             if h._ver != st.ver_before:
                 report.fail("unchanged", None, [], f"{op} raised {type(exc).__name__} yet changed the heap")
         else:
             st.since_full = 0
-            report.run(h._survey)
+            try:
+                report.run(h._survey)
+            except HeapError:
+                raise
+            except Exception:
+                st.force = True
     finally:
+        untally(c0)
         st.busy = None
         st.ver = h._ver
     if report.problems:
-        raise _failure(h, st, report) from exc
+        raise failure(h, st, report) from exc
 
 
 class _Checking:
     """The checking layer: wraps each mutating operation of the class below it."""
 
     __slots__ = ()
+
+    def __repr__(self) -> str:
+        st: Any = _state_of(self)
+        tag = "checked" if st is None or st.every == 1 else f"checked every {st.every}"
+        return mode_repr(super().__repr__(), tag)
 
     def push(self, key: Any, value: Any) -> Any:
         sup: Any = super()
@@ -388,8 +381,14 @@ class _Checking:
         if st is None:
             return sup.pop()
         h: Any = self
-        top = h.peek() if h._n else None
+        top = None
         try:
+            if h._n:
+                c0 = tally()
+                try:
+                    top = h.peek()  # which entry the pop takes, for the history (not counted)
+                finally:
+                    untally(c0)
             kv = sup.pop()
         except BaseException as exc:
             _abort(self, st, exc)
@@ -493,8 +492,12 @@ def _inner_meld(h: Any, other: Any) -> None:
     if st.busy != "extend" or st.touched is not _PENDING:
         return
     report = Report()
-    report.run(other._survey)
+    c0 = tally()
+    try:
+        report.run(other._survey)
+    finally:
+        untally(c0)
     if report.problems:
-        raise _failure(h, st, report)
+        raise failure(h, st, report)
     st.touched = h._touched("meld", other) if _valid(h, "meld", other) else _NOTHING
     st.subject = other

@@ -17,7 +17,7 @@ from heapkit.concurrent.guard import Wrapper
 from heapkit.errors import HeapError, InvariantError, nan_inside
 from heapkit.protocol import Shape
 
-__all__ = ["LIMIT", "PROTOCOL_RULES", "Report", "check", "kind_name", "problem_prefix"]
+__all__ = ["LIMIT", "PROTOCOL_RULES", "Report", "check", "kind_name", "mode_repr", "problem_prefix"]
 
 #: How many broken rules one check reports before it stops looking.
 LIMIT = 8
@@ -106,6 +106,17 @@ def kind_name(heap: Any) -> str:
         if "KIND" in c.__dict__:
             return str(c.__dict__["KIND"])
     return type(heap).__name__
+
+
+def mode_repr(text: str, tag: str) -> str:
+    """A heap's ``repr`` with a mode's tag added: ``<X n=1 ...>`` -> ``<X n=1 ... [tag]>``.  O(len).
+
+    >>> mode_repr(mode_repr("<PairingHeap empty>", "audited"), "checked")
+    '<PairingHeap empty [audited, checked]>'
+    """
+    if text.endswith("]>"):
+        return f"{text[:-2]}, {tag}]>"
+    return f"{text[:-1]} [{tag}]>"
 
 
 def check(heap: Any) -> Shape:
