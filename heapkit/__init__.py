@@ -1,5 +1,7 @@
 """heapkit: addressable priority queues with handles, contracts and an auditor."""
 
+# First: importing _compiled refuses stale in-tree .so files before any compiled module loads.
+from heapkit import _compiled
 from heapkit.audit import audit
 from heapkit.contracts import check, checked, to_dot, unchecked
 from heapkit.errors import (
@@ -27,7 +29,11 @@ from heapkit.kinds import (
 from heapkit.protocol import Handle, Heap, Shape
 from heapkit.threads import Locked, locked
 
+#: True when the mypyc-compiled core is running (``HEAPKIT_COMPILE=1 pip install .``).
+COMPILED: bool = _compiled.running_compiled()
+
 __all__ = [
+    "COMPILED",
     "DEFAULT",
     "KINDS",
     "BinaryHeap",
