@@ -98,3 +98,14 @@ def test_mypy_is_a_build_requirement_only_when_compiling(monkeypatch: pytest.Mon
     monkeypatch.setenv("HEAPKIT_COMPILE", "1")
     assert any(r.startswith("mypy") for r in backend.get_requires_for_build_wheel())
     sys.modules.pop("_heapkit_backend", None)
+
+
+def test_integer_graph_weights_stay_int_on_both_builds() -> None:
+    # graphs.py promises "integer weights in 1..100" (radix needs int keys); mypyc turns an
+    # int annotated ``float`` into a float, so this fails on a compiled build typed ``float``.
+    from heapkit.bench.graphs import grid_graph, sparse_graph
+
+    for adj in (sparse_graph(50, 200, seed=3, integer=True), grid_graph(4, 5, seed=3, integer=True)):
+        weights = [w for arcs in adj for _, w in arcs]
+        assert weights and all(type(w) is int and 1 <= w <= 100 for w in weights)
+    assert all(type(w) is float for arcs in sparse_graph(50, 200, seed=3) for _, w in arcs)
