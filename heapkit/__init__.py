@@ -17,6 +17,8 @@ import types as _types
 from importlib import import_module as _import_module
 from typing import TYPE_CHECKING
 
+# First: importing _compiled refuses stale in-tree .so files before any compiled module loads.
+from heapkit import _compiled
 from heapkit.errors import (
     BoundExceededError,
     ClosedError,
@@ -51,7 +53,11 @@ if TYPE_CHECKING:
     from heapkit.contracts import HistoryError, check, checked, set_debug, to_dot, unchecked
     from heapkit.threads import Locked, locked
 
+#: True when the mypyc-compiled core is running (``HEAPKIT_COMPILE=1 pip install .``).
+COMPILED: bool = _compiled.running_compiled()
+
 __all__ = [
+    "COMPILED",
     "DEFAULT",
     "KINDS",
     "Asynchronous",

@@ -49,8 +49,9 @@ def test_replay_of_a_bad_file_exits_2(tmp_path: Path, capsys: pytest.CaptureFixt
 
 def test_kinds_lists_each_kind_once(capsys: pytest.CaptureFixture[str]) -> None:
     assert main(["kinds"]) == 0
-    lines = capsys.readouterr().out.strip().splitlines()
+    *lines, build = capsys.readouterr().out.strip().splitlines()
     assert sorted(line.split()[0] for line in lines) == sorted(heapkit.KINDS)
+    assert build == f"compiled: {heapkit.COMPILED}"
 
 
 def test_bad_usage_exits_2() -> None:

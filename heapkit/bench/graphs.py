@@ -11,10 +11,13 @@ import random
 
 __all__ = ["Adjacency", "grid_graph", "sparse_graph"]
 
-Adjacency = list[list[tuple[int, float]]]
+#: Weights are ``int | float``, not ``float``: compiled (mypyc) code converts an int
+#: annotated ``float`` to a float, and radix needs int keys.
+Weight = int | float
+Adjacency = list[list[tuple[int, Weight]]]
 
 
-def _weight(rng: random.Random, integer: bool) -> float:
+def _weight(rng: random.Random, integer: bool) -> Weight:
     # Integer weights in 1..100 (monotone kinds such as radix need int keys).
     return rng.randint(1, 100) if integer else rng.random()
 

@@ -1,4 +1,4 @@
-"""``python -m heapkit kinds``: each kind with its bounds, one line each."""
+"""``python -m heapkit kinds``: each kind with its bounds, one line each, then which build runs."""
 
 from __future__ import annotations
 
@@ -23,4 +23,5 @@ def describe(name: str) -> str:
 def run(args: argparse.Namespace) -> int:
     for name in sorted(heapkit.KINDS):
         print(describe(name))
+    print(f"compiled: {heapkit.COMPILED}")
     return 0
