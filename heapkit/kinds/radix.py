@@ -204,6 +204,7 @@ class RadixHeap(HeapBase[int, V], Generic[V]):
             x._i = len(bl)
             bl.append(x)
         src.clear()
+        self._ver += 1  # entries moved: running iterations must stop even if a later `<` raises
         return b0
 
     def peek(self) -> _Item[int, V]:
