@@ -121,8 +121,7 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
         if m is None:
             self._min = node
         else:
-            # The truth value first: a key's `<` may return an object whose bool() raises.
-            if k < m._k:
+            if k < m._k:  # the truth value first: bool() of it may raise
                 wins = True
             else:
                 wins = False
@@ -244,13 +243,11 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
             if x is not m and k < m._k:
                 self._min = x
         elif k < p._k:
-            if k < m._k:
-                wins = True
-            else:
-                wins = False
-            self._cut(x)
-            if wins:
+            if k < m._k:  # the truth value before the cut (bool() of it may raise)
+                self._cut(x)
                 self._min = x
+            else:
+                self._cut(x)
         x._key = key
         x._k = k
         self._ver += 1
