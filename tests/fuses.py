@@ -6,16 +6,18 @@ chosen number of comparisons, in one of two ways (the ``MODES``):
   :class:`Boom`, as symbolic-math expressions and array-valued keys do, so the failure
   comes when the heap takes the comparison's truth value, not when it compares.
 
-Plus :func:`start_iteration` and :func:`finish_iteration`, the check that an iteration
-running across a failed operation either stops with ``RuntimeError`` or yields every entry
-exactly once.
+Plus :func:`assert_unchanged` (the failure rule of api.md), and :func:`start_iteration`
+and :func:`finish_iteration`, the check that an iteration running across a failed
+operation either stops with ``RuntimeError`` or yields every entry exactly once.
 """
 
 from __future__ import annotations
 
 import itertools
-from collections.abc import Iterator
+from collections.abc import Callable, Iterator
 from typing import Any
+
+import heapkit
 
 MODES = ["raise in <", "raise in bool()"]
 
@@ -86,3 +88,12 @@ def finish_iteration(walks: list[tuple[Iterator[Any], list[Any]]], heap: Any) ->
         except RuntimeError:
             continue
         assert sorted(map(id, got)) == sorted(map(id, heap)), "iteration skipped or repeated entries"
+
+
+def assert_unchanged(state: Callable[[Any], Any], *sides: tuple[Any, Any, list[Any]]) -> None:
+    """For each ``(heap, state before, handles live before)`` after a failed operation:
+    the same ``state(heap)``, every handle still live there, and ``heapkit.check`` passes."""
+    for heap, before, live in sides:
+        assert state(heap) == before
+        assert all(x.alive and x in heap for x in live)
+        heapkit.check(heap)

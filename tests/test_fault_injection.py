@@ -15,7 +15,7 @@ import pytest
 
 import heapkit
 from heapkit.kinds.radix import RadixHeap
-from tests.fuses import MODES, Boom, Fuse, finish_iteration, start_iteration
+from tests.fuses import MODES, Boom, Fuse, assert_unchanged, finish_iteration, start_iteration
 from tests.kinds import NAMES
 
 
@@ -102,12 +102,7 @@ def _fault_at(name: str, stable: bool, op: str, mode: str, seed: int, fuse: int)
     finally:
         Fuse.disarm()
     finish_iteration(walks, heap)
-    assert _snapshot(heap) == before
-    assert _snapshot(other) == before_other
-    assert all(h.alive and h in heap for h in live)
-    assert all(h.alive and h in other for h in others)
-    heapkit.check(heap)
-    heapkit.check(other)
+    assert_unchanged(_snapshot, (heap, before, live), (other, before_other, others))
     # and it still works: everything pops in order.  Source: Python's sorted() (_snapshot).
     keys = [int(heap.pop()[0]) for _ in range(len(heap))]
     assert keys == [k for k, _ in before]

@@ -26,7 +26,7 @@ import heapkit
 from heapkit._core import Owner
 from heapkit.contracts import Report
 from heapkit.kinds.rank_pairing import RankPairingHeap, _Node
-from tests.fuses import MODES, Boom, Fuse
+from tests.fuses import MODES, Boom, Fuse, assert_unchanged
 
 PHI = (1 + math.sqrt(5)) / 2  # golden ratio, from math.sqrt
 
@@ -341,12 +341,7 @@ def test_a_failing_comparison_loses_nothing(op: str, stable: bool, mode: str) ->
             finally:
                 Fuse.disarm()
             # same entries and keys, every live handle still live, every rule intact
-            assert _state(h) == before
-            assert _state(o) == other_before
-            assert all(x.alive and x in h for x in hs)
-            assert all(x.alive and x in o for x in os_)
-            heapkit.check(h)
-            heapkit.check(o)
+            assert_unchanged(_state, (h, before, hs), (o, other_before, os_))
             drained = [h.pop()[0].v for _ in range(len(h))]
             assert drained == sorted(drained)
         else:
