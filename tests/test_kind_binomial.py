@@ -22,6 +22,7 @@ import heapkit
 from heapkit._core import Owner
 from heapkit.contracts import Report
 from heapkit.kinds.binomial import BinomialHeap
+from tests import fuses
 
 
 def root_degrees(h: Any) -> list[int]:
@@ -378,25 +379,16 @@ def test_sorting_comparisons_lie_between_log2_n_factorial_and_the_bound() -> Non
 # --- exception safety: a `<` that raises after a chosen number of calls -------------------------
 
 
-class Blown(Exception):
-    """Raised by a Fuse key once its comparison budget is spent."""
-
-
 class Fuse:
-    """A key whose ``<`` raises once the shared budget runs out (None: no limit)."""
+    """A key whose ``<`` fails (``tests.fuses.MODES``) once the shared budget runs out."""
 
     __slots__ = ("v",)
-    budget: int | None = None
 
     def __init__(self, v: int) -> None:
         self.v = v
 
-    def __lt__(self, other: Fuse) -> bool:
-        if Fuse.budget is not None:
-            if Fuse.budget <= 0:
-                raise Blown
-            Fuse.budget -= 1
-        return self.v < other.v
+    def __lt__(self, other: Fuse) -> Any:
+        return fuses.Fuse.result(self.v < other.v)
 
     def __repr__(self) -> str:
         return f"Fuse({self.v})"
@@ -438,19 +430,20 @@ def _snapshot(h: Any) -> dict[int, tuple[Any, Any, Any]]:
     return {id(x): (x, x.key, x.value) for x in h}
 
 
+@pytest.mark.parametrize("mode", fuses.MODES)
 @pytest.mark.parametrize("stable", [False, True])
 @pytest.mark.parametrize("op", sorted(OPS))
-def test_a_failing_comparison_changes_nothing(op: str, stable: bool) -> None:
+def test_a_failing_comparison_changes_nothing(op: str, stable: bool, mode: str) -> None:
     blown = 0
     for budget in range(400):
         h, o = _setup(stable)
         before = [_snapshot(h), _snapshot(o)]
-        Fuse.budget = budget
+        fuses.Fuse.arm(budget, mode)
         try:
             OPS[op](h, o)
-        except Blown:
+        except fuses.Boom:
             blown += 1
-            Fuse.budget = None
+            fuses.Fuse.disarm()
             for heap, snap in zip((h, o), before, strict=True):
                 assert _snapshot(heap) == snap  # same entries, same keys and values
                 assert all(x.alive and x in heap for x, _, _ in snap.values())
@@ -459,7 +452,7 @@ def test_a_failing_comparison_changes_nothing(op: str, stable: bool) -> None:
                 assert keys == sorted(v.v for _, v, _ in snap.values())  # sorted
             continue
         finally:
-            Fuse.budget = None
+            fuses.Fuse.disarm()
         heapkit.check(h)
         break
     else:

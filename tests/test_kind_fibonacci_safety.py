@@ -7,35 +7,27 @@ from __future__ import annotations
 
 import random
 from collections.abc import Callable
-from typing import Any, ClassVar
+from typing import Any
 
 import pytest
 
 import heapkit
 from heapkit._core import Stable
 from heapkit.kinds.fibonacci import FibonacciHeap
+from tests.fuses import MODES, Boom, Fuse
 from tests.test_kind_fibonacci import marked_chain
 
 
-class Boom(Exception):
-    """What a key's ``<`` raises once its fuse burns down."""
-
-
 class Fused:
-    """A key whose ``<`` raises after ``Fused.fuse`` more comparisons (None: never)."""
+    """A key whose ``<`` fails (``tests.fuses.MODES``) once the fuse burns down."""
 
     __slots__ = ("v",)
-    fuse: ClassVar[int | None] = None
 
     def __init__(self, v: float) -> None:
         self.v = v
 
-    def __lt__(self, other: Fused) -> bool:
-        if Fused.fuse is not None:
-            if Fused.fuse <= 0:
-                raise Boom
-            Fused.fuse -= 1
-        return self.v < other.v
+    def __lt__(self, other: Fused) -> Any:
+        return Fuse.result(self.v < other.v)
 
     def __repr__(self) -> str:
         return f"F({self.v})"
@@ -98,15 +90,16 @@ OPS: dict[str, Callable[[Any, Any, dict[str, Any]], Any]] = {
 }
 
 
+@pytest.mark.parametrize("mode", MODES)
 @pytest.mark.parametrize("stable", [False, True])
 @pytest.mark.parametrize("op", sorted(OPS))
-def test_failing_comparison_keeps_every_entry(op: str, stable: bool) -> None:
+def test_failing_comparison_keeps_every_entry(op: str, stable: bool, mode: str) -> None:
     failures = 0
     budget = 0
     while True:
         h, other, names = _scenario(budget % 3, stable)
         before, before_other = _snapshot(h), _snapshot(other)
-        Fused.fuse = budget
+        Fuse.arm(budget, mode)
         try:
             OPS[op](h, other, names)
         except Boom:
@@ -114,7 +107,7 @@ def test_failing_comparison_keeps_every_entry(op: str, stable: bool) -> None:
         else:
             failed = False
         finally:
-            Fused.fuse = None
+            Fuse.disarm()
         if not failed:
             break
         failures += 1

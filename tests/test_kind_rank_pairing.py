@@ -26,6 +26,7 @@ import heapkit
 from heapkit._core import Owner
 from heapkit.contracts import Report
 from heapkit.kinds.rank_pairing import RankPairingHeap, _Node
+from tests.fuses import MODES, Boom, Fuse, assert_unchanged
 
 PHI = (1 + math.sqrt(5)) / 2  # golden ratio, from math.sqrt
 
@@ -271,19 +272,15 @@ def test_survey_local_sees_a_broken_neighbourhood() -> None:
 
 # --- exception safety --------------------------------------------------------------
 class Bomb:
-    """A key whose ``<`` raises once ``Bomb.fuse`` comparisons have run."""
+    """A key whose ``<`` fails (``tests.fuses.MODES``) once the fuse's comparisons have run."""
 
-    fuse = -1
     __slots__ = ("v",)
 
     def __init__(self, v: float) -> None:
         self.v = v
 
-    def __lt__(self, other: Bomb) -> bool:
-        if Bomb.fuse == 0:
-            raise TypeError("bomb")
-        Bomb.fuse -= 1
-        return self.v < other.v
+    def __lt__(self, other: Bomb) -> Any:
+        return Fuse.result(self.v < other.v)
 
     def __eq__(self, other: object) -> bool:
         return isinstance(other, Bomb) and self.v == other.v
@@ -324,32 +321,27 @@ def _state(h: Any) -> list[tuple[float, Any]]:
     return sorted((x.key.v, x.value) for x in h)
 
 
+@pytest.mark.parametrize("mode", MODES)
 @pytest.mark.parametrize("stable", [False, True])
 @pytest.mark.parametrize("op", list(OPS))
-def test_a_failing_comparison_loses_nothing(op: str, stable: bool) -> None:
+def test_a_failing_comparison_loses_nothing(op: str, stable: bool, mode: str) -> None:
     for seed in range(3):
         fails = 0
         for fuse in range(200):
             h, hs, o, os_ = _build(seed, stable)
             before, other_before = _state(h), _state(o)
-            Bomb.fuse = fuse
+            Fuse.arm(fuse, mode)
             try:
                 OPS[op](h, hs, o, random.Random(seed))
-            except TypeError as e:
-                assert str(e) == "bomb"
+            except Boom:
                 fails += 1
             else:
-                Bomb.fuse = -1
+                Fuse.disarm()
                 break
             finally:
-                Bomb.fuse = -1
+                Fuse.disarm()
             # same entries and keys, every live handle still live, every rule intact
-            assert _state(h) == before
-            assert _state(o) == other_before
-            assert all(x.alive and x in h for x in hs)
-            assert all(x.alive and x in o for x in os_)
-            heapkit.check(h)
-            heapkit.check(o)
+            assert_unchanged(_state, (h, before, hs), (o, other_before, os_))
             drained = [h.pop()[0].v for _ in range(len(h))]
             assert drained == sorted(drained)
         else:

@@ -1,42 +1,35 @@
 """The failure rule, on every kind (written for the speed-tuned hot paths, whose
-links and moves are inlined): if a key's ``<`` raises at any point, the heap
-afterwards holds the same entries, every live handle is still live, and
-``heapkit.check`` passes.
+links and moves are inlined): if a key's ``<`` raises at any point, or returns a
+result whose ``bool()`` raises, the heap afterwards holds the same entries, every
+live handle is still live, ``heapkit.check`` passes, and an iteration in progress
+either raises ``RuntimeError`` or still yields every entry.
 
-Each operation is tried with the k-th comparison raising, for every k until the
+Each operation is tried with the k-th comparison failing, for every k until the
 operation completes without reaching it."""
 
 from __future__ import annotations
 
 import random
 from collections.abc import Callable
-from typing import Any, ClassVar
+from typing import Any
 
 import pytest
 
 import heapkit
+from tests.fuses import MODES, Boom, Fuse, finish_iteration, start_iteration
 from tests.kinds import VARIANTS
 
 
-class Boom(Exception):
-    pass
-
-
 class Fragile:
-    """An int key whose ``<`` raises once ``budget`` comparisons are used up."""
+    """An int key whose ``<`` fails (as the fuse says) once its comparisons are used up."""
 
     __slots__ = ("v",)
-    budget: ClassVar[int | None] = None
 
     def __init__(self, v: int) -> None:
         self.v = v
 
-    def __lt__(self, other: Fragile) -> bool:
-        if Fragile.budget is not None:
-            if Fragile.budget == 0:
-                raise Boom
-            Fragile.budget -= 1
-        return self.v < other.v
+    def __lt__(self, other: Fragile) -> Any:
+        return Fuse.result(self.v < other.v)
 
     def __repr__(self) -> str:
         return f"F{self.v}"
@@ -70,9 +63,10 @@ def _ops(rng: random.Random) -> dict[str, Callable[[Any, list[Any]], Any]]:
     }
 
 
+@pytest.mark.parametrize("mode", MODES)
 @pytest.mark.parametrize(("kind", "stable"), [v for v in VARIANTS
                                               if not getattr(heapkit.KINDS[v[0]], "MONOTONE", False)])
-def test_a_raising_comparison_changes_nothing(kind: str, stable: bool) -> None:
+def test_a_raising_comparison_changes_nothing(kind: str, stable: bool, mode: str) -> None:
     for seed in range(3):
         for name in _ops(random.Random(0)):
             budget = 0
@@ -81,20 +75,23 @@ def test_a_raising_comparison_changes_nothing(kind: str, stable: bool) -> None:
                 before = sorted((h.key.v, h.value) for h in heap)
                 live = [h for h in heap]
                 op = _ops(random.Random(seed))[name]
-                Fragile.budget = budget
+                walks = start_iteration(heap)
+                Fuse.arm(budget, mode)
                 try:
                     op(heap, hs)
                 except Boom:
-                    Fragile.budget = None
+                    Fuse.disarm()
                     heapkit.check(heap)
+                    # Source: Python's sorted() of the entries kept before the call.
                     assert sorted((h.key.v, h.value) for h in heap) == before, (name, budget)
                     assert all(h.alive and h in heap for h in live), (name, budget)
+                    finish_iteration(walks, heap)
                 else:
-                    Fragile.budget = None
+                    Fuse.disarm()
                     heapkit.check(heap)
                     break
                 finally:
-                    Fragile.budget = None
+                    Fuse.disarm()
                 popped = [heap.pop()[0].v for _ in range(len(heap))]
                 # Source: Python's sorted() on the popped keys.
                 assert popped == sorted(popped)

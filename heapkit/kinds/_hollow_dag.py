@@ -161,6 +161,7 @@ def _adopt_all(heap: Any, x: Any, trees: list[Any], extra: Any) -> None:
         head = t
     x.uk = head
     heap._u += len(trees)
+    heap._ver += 1  # the trees moved: running iterations must stop
     if extra is not None:
         extra.item = None
         heap._h += 1

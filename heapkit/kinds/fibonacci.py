@@ -121,7 +121,10 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
         if m is None:
             self._min = node
         else:
-            wins = k < m._k
+            if k < m._k:  # the truth value first: bool() of it may raise
+                wins = True
+            else:
+                wins = False
             r = m._right
             node._left = m
             node._right = r
@@ -240,10 +243,11 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
             if x is not m and k < m._k:
                 self._min = x
         elif k < p._k:
-            wins = k < m._k
-            self._cut(x)
-            if wins:
+            if k < m._k:  # the truth value before the cut (bool() of it may raise)
+                self._cut(x)
                 self._min = x
+            else:
+                self._cut(x)
         x._key = key
         x._k = k
         self._ver += 1
@@ -266,7 +270,10 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
                     for t in trees:
                         if t._k < m._k:
                             m = t
-                    wins = k < m._k
+                    if k < m._k:
+                        wins = True
+                    else:
+                        wins = False
                 except BaseException:
                     self._unwind(x, trees)
                     raise
@@ -401,6 +408,7 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
         ring([z, *trees])
         self._min = z
         self._roots = len(trees) + 1
+        self._ver += 1  # the trees moved: running iterations must stop
 
     # --- SPI ---------------------------------------------------------------
     def _meld_from(self, other: FibonacciHeap[K, V]) -> None:
@@ -411,7 +419,10 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
         if a is None:
             self._min = b
         else:
-            wins = b._k < a._k
+            if b._k < a._k:
+                wins = True
+            else:
+                wins = False
             ar = a._right
             bl = b._left
             a._right = b

@@ -192,7 +192,11 @@ class HollowHeap(HeapBase[K, V], Generic[K, V]):
         u = e._node
         root: Any = self._root
         if u is not root:
-            wins = k < root.k
+            # The truth value first: a key's `<` may return an object whose bool() raises.
+            if k < root.k:
+                wins = True
+            else:
+                wins = False
             v = Node(k, key, e)
             e._node = v
             u.item = None

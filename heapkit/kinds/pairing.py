@@ -164,9 +164,9 @@ class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
         root = self._root
         if root is None:
             raise empty_error("pop")
+        self._ver += 1  # first: if a `<` raises, the children have moved
         self._root = _pair_children(root)
         self._n -= 1
-        self._ver += 1
         root._tok = None
         return root._key, root.value
 
@@ -190,7 +190,11 @@ class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
         # _lower, _cut and _hang written inline: decrease_key 24% faster (measured).
         root: Any = self._root
         if x is not root:
-            wins = k < root._k
+            # The truth value first: a key's `<` may return an object whose bool() raises.
+            if k < root._k:
+                wins = True
+            else:
+                wins = False
             p = x._prev
             n = x._next
             if p._child is x:
@@ -244,7 +248,10 @@ class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
     def _lower(self, x: Any, key: Any, k: Any) -> None:
         root = self._root
         if x is not root:
-            wins = k < root._k  # type: ignore[union-attr]
+            if k < root._k:  # type: ignore[union-attr]
+                wins = True
+            else:
+                wins = False
             _cut(x)
             if wins:
                 x._child, c = root, x._child
@@ -263,12 +270,16 @@ class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
     # Precondition: x is live here and k is above x's ordering object.
     # Pairs x's children first (safe to unwind), then compares, then moves.
     def _raise(self, x: Any, key: Any, k: Any) -> None:
+        self._ver += 1  # first: if a `<` raises, the children have moved
         c = _pair_children(x)
         root = self._root
         if x is root:
             if c is not None:
                 try:
-                    wins = c._k < k
+                    if c._k < k:
+                        wins = True
+                    else:
+                        wins = False
                 except BaseException:
                     _adopt(x, [c], None)
                     raise
@@ -285,7 +296,6 @@ class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
             _hang(root, x)
         x._key = key
         x._k = k
-        self._ver += 1
 
     def remove(self, handle: Handle[K, V]) -> tuple[K, V]:
         """Delete the entry and return ``(key, value)``.  O(log n) amortized.
@@ -299,12 +309,12 @@ class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
             self._claim(x, "remove")
         if x is self._root:
             return self.pop()
+        self._ver += 1  # first: if a `<` raises, the children have moved
         c = _pair_children(x)
         _cut(x)
         if c is not None:
             _hang(self._root, c)
         self._n -= 1
-        self._ver += 1
         x._tok = None
         return x._key, x.value
 

@@ -226,6 +226,7 @@ class RadixHeap(HeapBase[K, V], Generic[K, V]):
         src.clear()
         while not buckets[-1] and len(buckets) > 1:  # each bucket trimmed once per append
             buckets.pop()
+        self._ver += 1  # entries moved: running iterations must stop even if a later `<` raises
         return b0
 
     def peek(self) -> Handle[K, V]:

@@ -162,7 +162,11 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
             node._next = node._prev = node
             self._first = node
         else:
-            wins = k < first._k
+            # The truth value first: a key's `<` may return an object whose bool() raises.
+            if k < first._k:
+                wins = True
+            else:
+                wins = False
             enlist(first, node)
             if wins:
                 self._first = node
@@ -320,7 +324,10 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
     def _lower(self, x: Any, key: Any, k: Any) -> None:
         first = self._first
         if x is not first:
-            wins = k < first._k  # type: ignore[union-attr]
+            if k < first._k:  # type: ignore[union-attr]
+                wins = True
+            else:
+                wins = False
             if x._up is not None:
                 cut(self, x)
                 left = x._left
@@ -348,7 +355,10 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
                 self._first = x
             else:
                 try:
-                    wins = k < nxt._k
+                    if k < nxt._k:
+                        wins = True
+                    else:
+                        wins = False
                 except BaseException:
                     enlist(nxt, x)  # x, still at its old key, is the least
                     self._first = x
@@ -404,7 +414,10 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
         if a is None:
             self._first = b
         elif b is not None:
-            wins = b._k < a._k
+            if b._k < a._k:
+                wins = True
+            else:
+                wins = False
             a_last = a._prev
             b_last = b._prev
             a_last._next = b
