@@ -90,7 +90,9 @@ def test_audit_comparison_counts_do_not_depend_on_the_order_of_the_modes(name: s
             heapkit.unchecked(h) if order == "checked above" else None
         counts.append([(r.op, r.comparisons) for r in led.records])
     assert counts[2] == counts[1]
-    if name != "lazy":  # lazy's peek (checked mode takes one before each pop) drops stale entries
+    # Checked mode takes a peek before each pop: lazy's peek drops stale entries and weak's
+    # settles the entries pushed since the last pop, so that work is counted at the peek.
+    if name not in ("lazy", "weak"):
         assert counts[1] == counts[0]
 
 

@@ -477,6 +477,9 @@ class WeakHeap(HeapBase[K, V], Generic[K, V]):
     def _dot_edges(self) -> Iterator[tuple[Any, Any, str]]:
         return _rules.dot_edges(self)
 
+    def _layout_problem(self, handles: list[Any], layout: Any) -> str | None:
+        return _rules.layout_problem(handles, layout)
+
     def _phi(self) -> float:
         return _cost.phi(self)
 

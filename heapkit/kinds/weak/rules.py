@@ -101,6 +101,22 @@ def survey(heap: Weak, report: Any) -> dict[str, Any]:
     }
 
 
+def layout_problem(handles: list[Any], layout: Any) -> str | None:
+    """Loading: one reverse bit per position, the settled prefix within the array and the
+    waiting positions distinct, sorted and inside it (no key compared).  O(n)."""
+    n = len(handles)
+    if type(layout) is not tuple or len(layout) != 3:
+        return f"expected (reverse bits, settled prefix, waiting positions), got {layout!r:.80}"
+    bits, s, up = layout
+    if type(bits) is not bytes or len(bits) != n or any(b > 1 for b in bits):
+        return f"expected {n} reverse bits of 0 or 1, got {bits!r:.80}"
+    if type(s) is not int or not 0 <= s <= n:
+        return f"settled prefix {s!r:.40} is not an int in 0..{n}"
+    if type(up) is not list or any(type(i) is not int or not 0 <= i < n for i in up) or up != sorted(set(up)):
+        return f"waiting positions {up!r:.80} are not distinct sorted positions below {n}"
+    return None
+
+
 def dot_edges(heap: Weak) -> Iterator[tuple[Any, Any, str]]:
     """``(entry at the distinguished ancestor or None, entry, "[i]")`` in array order:
     the heap-ordered multiway tree a weak heap stands for (pending entries marked)."""
