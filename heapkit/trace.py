@@ -37,11 +37,17 @@ import os
 from collections.abc import Callable, Iterable, Iterator
 from dataclasses import dataclass, field
 from types import TracebackType
-from typing import IO, Any
+from typing import IO, Any, Generic, TypeVar
 
 from heapkit._trace_read import MAX_KEY_DEPTH, MAX_LINE, _key, _parse
 from heapkit.errors import HeapError
 from heapkit.kinds import new
+from heapkit.protocol import Handle, Heap
+
+K = TypeVar("K")
+V = TypeVar("V")
+K2 = TypeVar("K2")
+V2 = TypeVar("V2")
 
 __all__ = ["MAX_KEY_DEPTH", "MAX_LINE", "Recorder", "TraceError", "key_from_json", "read", "record", "replay"]
 
@@ -169,7 +175,7 @@ class _Trace:
             ) from self.error
 
 
-class Recorder:
+class Recorder(Generic[K, V]):
     """A heap that writes each operation to a trace; it satisfies the heap protocol.
 
     >>> import tempfile, os
@@ -182,13 +188,13 @@ class Recorder:
     3
     """
 
-    def __init__(self, heap: Any, trace: _Trace) -> None:
-        self.inner = heap
+    def __init__(self, heap: Heap[K, V], trace: _Trace) -> None:
+        self.inner: Heap[K, V] = heap
         self._trace = trace
         self.q = trace.queues
         trace.queues += 1
 
-    def sibling(self, heap: Any) -> Recorder:
+    def sibling(self, heap: Heap[K2, V2]) -> Recorder[K2, V2]:
         """Record another queue into the same trace (so melds between them replay).  O(1)."""
         return Recorder(heap, self._trace)
 
@@ -201,7 +207,7 @@ class Recorder:
         """Close the trace (siblings share it); ``TraceError`` if a write had failed.  O(1)."""
         self._trace.close()
 
-    def __enter__(self) -> Recorder:
+    def __enter__(self) -> Recorder[K, V]:
         return self
 
     def __exit__(self, kind: type[BaseException] | None, exc: BaseException | None, tb: TracebackType | None) -> None:
@@ -213,7 +219,7 @@ class Recorder:
         except TraceError as failure:
             _log.error("%s", failure)
 
-    def push(self, key: Any, value: Any) -> Any:
+    def push(self, key: K, value: V) -> Handle[K, V]:
         t = self._trace
         t.open("push")
         text = t.line("push", q=self.q, id=t.next_id, key=_json_key(key, "push"))
@@ -222,7 +228,7 @@ class Recorder:
         t.write(text)
         return h
 
-    def extend(self, pairs: Iterable[tuple[Any, Any]]) -> list[Any]:
+    def extend(self, pairs: Iterable[tuple[K, V]]) -> list[Handle[K, V]]:
         t = self._trace
         t.open("extend")
         pairs = list(pairs)
@@ -234,10 +240,10 @@ class Recorder:
         t.write(text)
         return list(hs)
 
-    def peek(self) -> Any:
+    def peek(self) -> Handle[K, V]:
         return self.inner.peek()
 
-    def pop(self) -> tuple[Any, Any]:
+    def pop(self) -> tuple[K, V]:
         t = self._trace
         t.open("pop")
         h = self.inner.peek() if self.inner else None
@@ -251,30 +257,30 @@ class Recorder:
         t.write(t.line("pop", q=self.q, **ident, key=_json_key(key, "pop")))
         return key, value
 
-    def decrease_key(self, handle: Any, key: Any) -> None:
+    def decrease_key(self, handle: Handle[K, V], key: K) -> None:
         t = self._trace
         t.open("decrease_key")
         text = t.line("decrease_key", q=self.q, id=t.entry(handle), key=_json_key(key, "decrease_key"))
         self.inner.decrease_key(handle, key)
         t.write(text)
 
-    def change_key(self, handle: Any, key: Any) -> None:
+    def change_key(self, handle: Handle[K, V], key: K) -> None:
         t = self._trace
         t.open("change_key")
         text = t.line("change_key", q=self.q, id=t.entry(handle), key=_json_key(key, "change_key"))
         self.inner.change_key(handle, key)
         t.write(text)
 
-    def remove(self, handle: Any) -> tuple[Any, Any]:
+    def remove(self, handle: Handle[K, V]) -> tuple[K, V]:
         t = self._trace
         t.open("remove")
         text = t.line("remove", q=self.q, id=t.entry(handle))
         out = self.inner.remove(handle)
         t.forget(handle)
         t.write(text)
-        return out  # type: ignore[no-any-return]
+        return out
 
-    def meld(self, other: Any) -> None:
+    def meld(self, other: Heap[K, V]) -> None:
         if not isinstance(other, Recorder) or other._trace is not self._trace:
             raise TypeError("meld: record the other queue with recorder.sibling(heap) first")
         self._trace.open("meld")
@@ -296,14 +302,14 @@ class Recorder:
     def __bool__(self) -> bool:
         return bool(self.inner)
 
-    def __iter__(self) -> Iterator[Any]:
+    def __iter__(self) -> Iterator[Handle[K, V]]:
         return iter(self.inner)
 
     def __contains__(self, handle: object) -> bool:
         return handle in self.inner
 
 
-def record(heap: Any, path: str | os.PathLike[str] | IO[str], *, mode: str = "w") -> Recorder:
+def record(heap: Heap[K, V], path: str | os.PathLike[str] | IO[str], *, mode: str = "w") -> Recorder[K, V]:
     """Wrap ``heap`` so that every operation is written to the JSON Lines file ``path``.
 
     O(1) extra per operation (one line written and flushed).  ``mode="w"``

@@ -25,6 +25,7 @@ from heapkit import (
     RadixHeap,
     RankPairingHeap,
     WeakHeap,
+    trace,
 )
 
 
@@ -139,3 +140,20 @@ def every_kind_is_a_heap() -> None:
     ]
     for q in kinds:
         q.meld(heapkit.new("pairing"))  # same kind needed at run time (TypeError otherwise)
+
+
+def recorded_heaps_keep_their_types(path: str) -> None:
+    with trace.record(PairingHeap[float, str](), path) as q:
+        assert_type(q, trace.Recorder[float, str])
+        h = q.push(1.0, "a")
+        assert_type(h, Handle[float, str])
+        assert_type(q.peek(), Handle[float, str])
+        assert_type(q.extend([(2.0, "b")]), list[Handle[float, str]])
+        q.decrease_key(h, 0.5)
+        assert_type(q.pop(), tuple[float, str])
+        assert_type(iter(q), Iterator[Handle[float, str]])
+        other = q.sibling(LazyHeap[int, bytes]())
+        assert_type(other, trace.Recorder[int, bytes])
+        q.push("x", "y")  # type: ignore[arg-type]
+        protocol_view: Heap[float, str] = q
+        print(protocol_view)

@@ -34,7 +34,7 @@ def record_scenario(path: str | os.PathLike[str], *, size: int = 45, jobs: int =
     """Write the scenario's trace to ``path`` and return its story."""
     rng = random.Random(seed)
     story = Story()
-    routes = trace.record(heapkit.new("pairing"), path)
+    routes: trace.Recorder[int, tuple[int, int]] = trace.record(heapkit.new("pairing"), path)
     # Morning: Dijkstra from the depot at junction (0, 0) on a size x size grid.
     minutes = {}
     for x in range(size):
@@ -64,8 +64,8 @@ def record_scenario(path: str | os.PathLike[str], *, size: int = 45, jobs: int =
                 story.relaxed += 1
     story.junctions = len(done)
     # Day: jobs at two depots; keys are (deadline minute, job number).
-    west = routes.sibling(heapkit.new("pairing"))
-    east = routes.sibling(heapkit.new("pairing"))
+    west: trace.Recorder[tuple[int, int], str] = routes.sibling(heapkit.new("pairing"))
+    east: trace.Recorder[tuple[int, int], str] = routes.sibling(heapkit.new("pairing"))
     open_jobs = []
     for j in range(jobs):
         depot = west if rng.random() < 0.6 else east
