@@ -99,7 +99,7 @@ def new(kind: str | None = None, pairs: Iterable[tuple[Any, Any]] = (), *, stabl
     """Make a heap of the kind called ``kind`` (``DEFAULT`` when omitted) holding ``pairs``.  O(len(pairs)).
 
     Kinds (``KINDS``): ``binary``, ``binomial``, ``dary``, ``fibonacci``, ``hollow``,
-    ``lazy``, ``pairing``, ``radix``, ``rank-pairing``.  Options: ``stable=True``
+    ``lazy``, ``pairing``, ``radix``, ``rank-pairing``, ``weak``.  Options: ``stable=True``
     (equal keys pop in push order) for every kind; ``arity=d`` (default 4) for
     ``dary``.  A literal kind name gives the type checker the concrete class; a
     ``str`` known only at run time gives ``Heap[K, V]``.  ``ValueError`` for an

@@ -177,7 +177,10 @@ class _Base(RuleBasedStateMachine):
         if not self.refs[w]:
             return
         got = self._call(f"{self.qname(w)}.peek()", self.queues[w].peek)
-        self._pop(w, got if isinstance(got, tuple) else (got.key, got.value))
+        if not isinstance(got, tuple) and _key_of(got) is _NO_KEY:
+            self.fail(f"peek returned {got!r}, which has no .key and is not a (key, value) pair; "
+                      f"to fix: {_FIX['peek']}")
+        self._pop(w, got if isinstance(got, tuple) else (got.key, getattr(got, "value", None)))
 
     def _live(self, data: st.DataObject) -> tuple[int, tuple[str, Any, Any]] | None:
         live = [e for e in self.entries if e[2].alive]
@@ -252,9 +255,9 @@ def machine(
             def peek(self, w: int) -> None:
                 self._peek(w)
 
-        @rule(w=sides)
-        def pop_returns_what_peek_named(self, w: int) -> None:
-            self._peek_pop(w)
+            @rule(w=sides)
+            def pop_returns_what_peek_named(self, w: int) -> None:
+                self._peek_pop(w)
 
         if has["decrease"]:
 
