@@ -46,15 +46,9 @@ from __future__ import annotations
 from collections.abc import Callable, Iterable, Iterator
 from typing import Any, ClassVar, Generic, TypeVar
 
-from heapkit._core import (
-    HandleBase,
-    HeapBase,
-    empty_error,
-    nan_error,
-    upward_error,
-)
-from heapkit.kinds import dary_checks as _dc
-from heapkit.kinds.dary_audit import DaryAudit, _depth
+from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, upward_error
+from heapkit.kinds.dary import cost as _cost
+from heapkit.kinds.dary import rules as _rules
 from heapkit.protocol import Handle
 
 __all__ = ["DaryHeap"]
@@ -78,8 +72,8 @@ class _Slot(HandleBase[K, V]):
         self._i = -1
 
 
-class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
-    """Array heap of any arity (``dary`` is 4; ``binary``, in binary.py, is 2) with handles.
+class DaryHeap(HeapBase[K, V], Generic[K, V]):
+    """Array heap of any arity (``dary`` is 4; ``binary``, in kinds/binary/, is 2) with handles.
 
     >>> h = DaryHeap([(5, 'e'), (2, 'b')], arity=4)
     >>> x = h.push(9, 'i')
@@ -95,15 +89,10 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
     BOUNDS: ClassVar[str] = "worst-case: push, decrease_key O(log_d n); pop, remove, change_key O(d log_d n); peek O(1)"
     WORST_CASE: ClassVar[bool] = True
     DEFAULT_ARITY: ClassVar[int] = 4
-    RULES: ClassVar[dict[str, str]] = {
-        "heap-order": "no entry is smaller than its parent a[(i - 1) // d]",
-        "index": "every handle's position is where it stands in the array",
-        "size": "the array holds len(heap) entries",
-        "ownership": "every handle's owner token resolves to this heap's",
-    }
-    COST_UNIT: ClassVar[str] = "levels an entry moves + 1"
-    PHI_C: ClassVar[float] = 1.0
-    POTENTIAL: ClassVar[str] = "none (worst-case bounds)"
+    RULES: ClassVar[dict[str, str]] = _rules.RULES
+    COST_UNIT: ClassVar[str] = _cost.COST_UNIT
+    PHI_C: ClassVar[float] = _cost.PHI_C
+    POTENTIAL: ClassVar[str] = _cost.POTENTIAL
 
     _a: list[_Slot[K, V]]
     _d: int
@@ -441,11 +430,6 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
         for x in b:
             x._tok = tok
 
-    # Full survey, check paths, checked mode and to_dot hooks (see dary_checks.py
-    # and the SPI in _core.py).
-    _survey, _path = _dc.survey, _dc.path
-    _touched, _survey_local, _dot_edges = _dc.touched, _dc.survey_local, _dc.dot_edges
-
     # Precondition: x was the last entry pushed and nothing moved since.
     # Restores: the array as it was before that push.  No comparison.
     def _unpush(self, x: Any) -> None:
@@ -480,17 +464,34 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
         for x in self._a:
             x._k = fn(x._k, x._key)
 
-    # --- audit: the bound here (derived in the module docstring); hooks in DaryAudit
     # The meld strategy: push m entries into n (m log(n + m) work) or heapify the
     # concatenation (n + m work), whichever bound is smaller.
     @staticmethod
     def _pushes(n: int, m: int) -> bool:
         return m * (n + m).bit_length() < n + m
 
+    # Rules, checks and drawing (rules.py); audit hooks (cost.py).
+    def _survey(self, report: Any) -> dict[str, Any]:
+        return _rules.survey(self, report)
+
+    def _touched(self, op: str, handle: Any) -> Any:
+        return _rules.touched(self, op, handle)
+
+    def _survey_local(self, report: Any, touched: Any, handle: Any) -> None:
+        _rules.survey_local(self, report, touched, handle)
+
+    def _dot_edges(self) -> Iterator[tuple[Any, Any, str]]:
+        return _rules.dot_edges(self)
+
+    def _phi(self) -> float:
+        return _cost.phi(self)
+
+    def _cost_probe(self, op: str, handle: Any) -> Any:
+        return _cost.probe(self, op, handle)
+
+    def _cost(self, op: str, probe: Any, handle: Any) -> int:
+        return _cost.actual(self, op, probe, handle)
+
     # An instance method, not a classmethod: the bound depends on the arity.
     def _bound(self, op: str, n: int) -> float:
-        if op == "meld":
-            return float(n + 1)
-        d = self._d
-        size = n + 1 if op == "push" else n
-        return float(_depth(max(size - 1, 0), d) + 1)
+        return _cost.bound(self, op, n)

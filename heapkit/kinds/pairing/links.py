@@ -1,7 +1,7 @@
 """The pairing heap's link surgery: link, cut, hang, and the two-pass pairing of a
 node's children, with the unwinding that keeps a raising comparison harmless.
 
-Nodes are :class:`heapkit.kinds.pairing._Node`: ``_child`` (leftmost child),
+Nodes are :class:`heapkit.kinds.pairing.heap._Node`: ``_child`` (leftmost child),
 ``_next`` (right sibling), ``_prev`` (left sibling, or the parent for a
 leftmost child).  These functions only relink; the heap keeps its own counts.
 """

@@ -5,7 +5,7 @@ right; Fredman, Sedgewick, Sleator, Tarjan 1986).  In audit mode every node's
 size lives in ``heap._ext["phi"]`` (a :class:`Sizes`), built in O(n) on the
 first ``_phi`` and fixed after each operation along what it changed: O(1) for
 push, O(r) for a pop with r children, O(binary-view depth) for a cut.  The
-cost unit and the bounds, with their derivation, are in ``pairing.py``.
+bounds are derived in the docstring of ``heap.py``.
 """
 
 from __future__ import annotations
@@ -14,9 +14,13 @@ import math
 from collections.abc import Iterable
 from typing import Any
 
-from heapkit.kinds.pairing_links import _children
+from heapkit.kinds.pairing.links import _children
 
-__all__ = ["PairingAudit", "Sizes"]
+__all__ = ["COST_UNIT", "PHI_C", "POTENTIAL", "Sizes", "actual", "bound", "phi", "probe", "sizes"]
+
+COST_UNIT = "links + nodes cut + 1"
+POTENTIAL = "sum over nodes of log2(binary-view subtree size)"
+PHI_C = 1.0
 
 
 class Sizes:
@@ -162,105 +166,118 @@ def _refresh(st: Sizes, dirty: Iterable[Any], removed: Iterable[Any]) -> None:
     st.phi += log2(new) - log2(old) - log2(gone)
 
 
-class PairingAudit:
-    """Mixin of :class:`heapkit.PairingHeap`: ``_phi``, ``_cost_probe``, ``_cost``."""
+def phi(heap: Any) -> float:
+    """The potential now, from the cached sizes (O(n) when rebuilt)."""
+    return sizes(heap).phi
 
-    __slots__ = ()
-    _root: Any
-    _ext: Any
-    _ver: int
 
-    def _phi(self) -> float:
-        return self._sizes().phi
+# The cached binary-view sizes, rebuilt in O(n) when the heap changed
+# since they were last fixed (or were never computed).
+def sizes(heap: Any) -> Sizes:
+    ext = heap._ext
+    st = None if ext is None else ext.get("phi")
+    if st is None or st.ver != heap._ver:
+        st = Sizes(heap)
+        if ext is None:
+            ext = heap._ext = {}
+        ext["phi"] = st
+    return st
 
-    # The cached binary-view sizes, rebuilt in O(n) when the heap changed
-    # since they were last fixed (or were never computed).
-    def _sizes(self) -> Sizes:
-        ext = self._ext
-        st = None if ext is None else ext.get("phi")
-        if st is None or st.ver != self._ver:
-            st = Sizes(self)
-            if ext is None:
-                ext = self._ext = {}
-            ext["phi"] = st
-        return st
 
-    def _cost_probe(self, op: str, handle: Any) -> Any:
-        root = self._root
-        if op == "push":
-            return root
-        if op == "pop":
-            kids: set[Any] = set()
-            c = root._child
-            while c is not None:
-                kids.add(c)
-                c = c._next
-            return (root, kids)
-        if op == "meld":
-            other = handle._sizes()
-            ext = handle._ext
-            del ext["phi"]
-            if not ext:
-                handle._ext = None
-            return (root, handle._root, other)
-        x = handle
-        below = [] if op == "decrease_key" else _children(x)
-        return (x is root, x._prev, root, below)
+def probe(heap: Any, op: str, handle: Any) -> Any:
+    """Before ``op``: what it may relink, and the other heap's sizes for a meld."""
+    root = heap._root
+    if op == "push":
+        return root
+    if op == "pop":
+        kids: set[Any] = set()
+        c = root._child
+        while c is not None:
+            kids.add(c)
+            c = c._next
+        return (root, kids)
+    if op == "meld":
+        other = sizes(handle)
+        ext = handle._ext
+        del ext["phi"]
+        if not ext:
+            handle._ext = None
+        return (root, handle._root, other)
+    x = handle
+    below = [] if op == "decrease_key" else _children(x)
+    return (x is root, x._prev, root, below)
 
-    def _cost(self, op: str, probe: Any, handle: Any) -> int:
-        st = self._sizes_kept()
-        if op == "push":
-            # O(1): the new node's binary subtree is everything but the root
-            # (or, as the new root, everything); the root's grows by one.
-            size = st.size
-            if probe is None:
-                size[handle] = 1
-                cost = 1
-            else:
-                n = size[probe]
-                size[handle] = n + 1 if handle._child is probe else n
-                size[self._root] = n + 1
-                st.phi += math.log2(n + 1)
-                cost = 2
-        elif op == "pop":
-            root, kids = probe
-            if kids:
-                _settle(st, self._root, kids, st.size.pop(root))
-            else:
-                st.size.pop(root)
-            cost = max(1, len(kids))
-        elif op == "meld":
-            a, b, other = probe
-            st.merge(other)
-            _refresh(st, (a, b), ())
-            cost = 1 if a is None or b is None else 2
+
+def actual(heap: Any, op: str, probe: Any, handle: Any) -> int:
+    """After ``op``: its actual cost; fixes the cached sizes along what it changed."""
+    st = _sizes_kept(heap)
+    if op == "push":
+        # O(1): the new node's binary subtree is everything but the root
+        # (or, as the new root, everything); the root's grows by one.
+        size = st.size
+        if probe is None:
+            size[handle] = 1
+            cost = 1
         else:
-            was_root, prev, root, kids = probe
-            x: Any = handle
-            r = len(kids)
-            if op == "remove":
-                _refresh(st, (prev, root, *kids), (x,))
-                cost = max(1, r) if was_root else r + 2
+            n = size[probe]
+            size[handle] = n + 1 if handle._child is probe else n
+            size[heap._root] = n + 1
+            st.phi += math.log2(n + 1)
+            cost = 2
+    elif op == "pop":
+        root, kids = probe
+        if kids:
+            _settle(st, heap._root, kids, st.size.pop(root))
+        else:
+            st.size.pop(root)
+        cost = max(1, len(kids))
+    elif op == "meld":
+        a, b, other = probe
+        st.merge(other)
+        _refresh(st, (a, b), ())
+        cost = 1 if a is None or b is None else 2
+    else:
+        was_root, prev, root, kids = probe
+        x: Any = handle
+        r = len(kids)
+        if op == "remove":
+            _refresh(st, (prev, root, *kids), (x,))
+            cost = max(1, r) if was_root else r + 2
+        else:
+            if kids:
+                _refresh(st, (prev, x, root, *kids), ())
+            elif not was_root:
+                _climb(st, (prev, x, root))
+            if was_root:
+                first: Any = x._child
+                raised = heap._root is not x or (r >= 2 and first._next is None)
+                cost = r + 1 if raised else 1
+            elif r and x._child is None:  # change_key upward: children paired, x re-hung
+                cost = r + 3
             else:
-                if kids:
-                    _refresh(st, (prev, x, root, *kids), ())
-                elif not was_root:
-                    _climb(st, (prev, x, root))
-                if was_root:
-                    first: Any = x._child
-                    raised = self._root is not x or (r >= 2 and first._next is None)
-                    cost = r + 1 if raised else 1
-                elif r and x._child is None:  # change_key upward: children paired, x re-hung
-                    cost = r + 3
-                else:
-                    cost = 3
-        st.ver = self._ver
-        return cost
+                cost = 3
+    st.ver = heap._ver
+    return cost
 
-    # The cache as the operation found it (the op changed _ver; _cost fixes it).
-    def _sizes_kept(self) -> Sizes:
-        ext = self._ext
-        st = None if ext is None else ext.get("phi")
-        if st is None:
-            raise RuntimeError("pairing audit: potential cache missing (was _phi called first?)")
-        return st  # type: ignore[no-any-return]
+
+# The cache as the operation found it (the op changed _ver; _cost fixes it).
+def _sizes_kept(heap: Any) -> Sizes:
+    ext = heap._ext
+    st = None if ext is None else ext.get("phi")
+    if st is None:
+        raise RuntimeError("pairing audit: potential cache missing (was _phi called first?)")
+    return st  # type: ignore[no-any-return]
+
+
+#: Audit bounds (heap.py's docstring): op -> (a, b), amortized cost <= a log2 n + b.
+_BOUNDS: dict[str, tuple[int, int]] = {
+    "pop": (2, 1), "meld": (1, 2), "decrease_key": (1, 3), "remove": (3, 3), "change_key": (4, 4),
+}
+
+
+def bound(op: str, n: int) -> float:
+    """The amortized bound of ``op`` at size ``n``."""
+    if op == "push":
+        return math.log2(n + 1) + 2
+    a, b = _BOUNDS[op]
+    return a * math.log2(n) + b if n > 1 else float(b)

@@ -1,7 +1,7 @@
 """The rules of a d-ary heap checked: the full survey, check paths, and what
-checked mode and ``to_dot`` ask (kept beside ``dary.py``).
+checked mode and ``to_dot`` ask (kept beside ``heap.py``).
 
-The full survey (``DaryHeap._survey``) visits every position once and checks
+The full survey (``survey``) visits every position once and checks
 ``index``, ``ownership`` and ``heap-order`` against the parent: O(n).
 
 Incremental checking: an operation (other than meld) moves entries along one
@@ -24,7 +24,14 @@ from __future__ import annotations
 from collections.abc import Iterator
 from typing import Any
 
-__all__ = ["dot_edges", "path", "stretch", "survey", "survey_local", "touched"]
+__all__ = ["RULES", "dot_edges", "path", "stretch", "survey", "survey_local", "touched"]
+
+RULES: dict[str, str] = {
+    "heap-order": "no entry is smaller than its parent a[(i - 1) // d]",
+    "index": "every handle's position is where it stands in the array",
+    "size": "the array holds len(heap) entries",
+    "ownership": "every handle's owner token resolves to this heap's",
+}
 
 
 def touched(heap: Any, op: str, handle: Any) -> Any:
@@ -97,16 +104,16 @@ def _at(heap: Any, report: Any, a: Any, d: int, i: int) -> None:
     """Check position ``i``: its index, owner, and order against its children."""
     x = a[i]
     if x._i != i:
-        report.fail("index", x, heap._path(i), f"handle says position {x._i}, stands at {i}")
+        report.fail("index", x, path(heap, i), f"handle says position {x._i}, stands at {i}")
     if x._tok is not heap._tok and x not in heap:
-        report.fail("ownership", x, heap._path(i), "its owner token is not this heap's")
+        report.fail("ownership", x, path(heap, i), "its owner token is not this heap's")
     xk = x._k
     lo = d * i + 1
     for c in range(lo, min(lo + d, len(a))):
         y = a[c]
         if y._k < xk:
             report.fail(
-                "heap-order", y, heap._path(c), f"key {y._key!r} is smaller than its parent's {x._key!r}"
+                "heap-order", y, path(heap, c), f"key {y._key!r} is smaller than its parent's {x._key!r}"
             )
 
 

@@ -26,10 +26,20 @@ from __future__ import annotations
 from collections.abc import Iterator
 from typing import Any
 
+from heapkit._core import seen_path
 from heapkit.kinds._layout import forest_problem
-from heapkit.kinds.pairing_links import _children
+from heapkit.kinds.pairing.cost import Sizes
+from heapkit.kinds.pairing.links import _children
 
 __all__ = ["dot_edges", "path_up", "survey_local", "touched"]
+
+
+RULES: dict[str, str] = {
+    "heap-order": "no child is smaller than its parent",
+    "links": "prev/next/child links agree; the root has no siblings; no node twice",
+    "size": "the nodes reachable from the root number len(heap)",
+    "ownership": "every node's owner token resolves to this heap's",
+}
 
 
 def touched(heap: Any, op: str, handle: Any) -> Any:
@@ -192,3 +202,56 @@ def dot_edges(heap: Any) -> Iterator[tuple[Any, Any, str]]:
 def layout_problem(heap: Any, handles: list[Any], layout: Any) -> str | None:
     """Loading: the child counts in preorder must make one tree of the handles.  O(n)."""
     return forest_problem(layout, len(handles), True)
+
+
+def survey(heap: Any, report: Any) -> dict[str, Any]:
+    """Check every rule in O(n); return the figures of :class:`heapkit.Shape`."""
+    root = heap._root
+    seen: dict[int, tuple[Any, str]] = {}
+    if root is not None:
+        seen[id(root)] = (None, "root")
+        if root._prev is not None or root._next is not None:
+            report.fail("links", root, seen_path(root, seen, "root"), "the root has a sibling link")
+    count = 0
+    height = 0
+    max_degree = 0
+    stack: list[tuple[Any, int]] = [] if root is None else [(root, 0)]
+    while stack:
+        x, depth = stack.pop()
+        count += 1
+        if count > heap._n + 1:
+            report.fail("size", x, seen_path(x, seen, "root"), f"more than {heap._n} nodes reachable")
+            break
+        height = max(height, depth)
+        if x not in heap:
+            report.fail("ownership", x, seen_path(x, seen, "root"), "its owner token is not this heap's")
+        degree = 0
+        prev = x
+        c = x._child
+        while c is not None:
+            if id(c) in seen:
+                report.fail("links", c, seen_path(x, seen, "root"), "a node is reachable twice")
+                break
+            seen[id(c)] = (x, f"child {degree}")
+            if c._prev is not prev:
+                report.fail("links", c, seen_path(c, seen, "root"), "prev does not point back")
+            if c._k < x._k:
+                report.fail(
+                    "heap-order", c, seen_path(c, seen, "root"),
+                    f"key {c._key!r} is smaller than its parent's {x._key!r}",
+                )
+            stack.append((c, depth + 1))
+            degree += 1
+            prev = c
+            c = c._next
+        max_degree = max(max_degree, degree)
+    if count != heap._n:
+        report.fail("size", None, [], f"{count} nodes reachable but len is {heap._n}")
+    return {
+        "size": count,
+        "roots": 0 if root is None else 1,
+        "height": height,
+        "max_degree": max_degree,
+        "marked": None,
+        "potential": Sizes(heap).phi,
+    }

@@ -15,7 +15,7 @@ O(log n) amortized (Fredman et al. 1986).  The standard potential is
 ``Phi = sum over nodes x of log2(size of x's subtree in the binary view)``,
 where the binary view takes ``child`` as left and ``next`` as right.
 
-Audit (``heapkit.audit``; hooks in ``pairing_audit.py``)
+Audit (``heapkit.audit``; hooks in ``cost.py``)
 --------------------------------------------------------
 Cost: links + nodes cut + 1.  ``PHI_C = 1``, ``Phi`` as above.  Recalled from
 memory: FSST 1986 get O(log n) amortized for all operations from this Phi and
@@ -33,21 +33,13 @@ right to left.
 
 from __future__ import annotations
 
-import math
 from collections.abc import Callable, Iterable, Iterator
 from typing import Any, ClassVar, Generic, TypeVar
 
-from heapkit._core import (
-    HandleBase,
-    HeapBase,
-    empty_error,
-    nan_error,
-    seen_path,
-    upward_error,
-)
-from heapkit.kinds import pairing_checks as _pc
-from heapkit.kinds.pairing_audit import PairingAudit, Sizes
-from heapkit.kinds.pairing_links import _adopt, _cut, _hang, _link, _pair_children
+from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, upward_error
+from heapkit.kinds.pairing import cost as _cost
+from heapkit.kinds.pairing import rules as _rules
+from heapkit.kinds.pairing.links import _adopt, _cut, _hang, _link, _pair_children
 from heapkit.protocol import Handle
 
 __all__ = ["PairingHeap"]
@@ -74,7 +66,7 @@ class _Node(HandleBase[K, V]):
         self._prev: Any = None
 
 
-class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
+class PairingHeap(HeapBase[K, V], Generic[K, V]):
     """Two-pass pairing heap with handles.
 
     >>> h = PairingHeap([(5, 'e'), (2, 'b')])
@@ -89,15 +81,10 @@ class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
     KIND: ClassVar[str] = "pairing"
     _NODE: ClassVar[type[Any]] = _Node
     BOUNDS: ClassVar[str] = "push, meld, peek O(1) worst-case; pop, remove, decrease_key, change_key O(log n) amortized"
-    RULES: ClassVar[dict[str, str]] = {
-        "heap-order": "no child is smaller than its parent",
-        "links": "prev/next/child links agree; the root has no siblings; no node twice",
-        "size": "the nodes reachable from the root number len(heap)",
-        "ownership": "every node's owner token resolves to this heap's",
-    }
-    COST_UNIT: ClassVar[str] = "links + nodes cut + 1"
-    PHI_C: ClassVar[float] = 1.0
-    POTENTIAL: ClassVar[str] = "sum over nodes of log2(binary-view subtree size)"
+    RULES: ClassVar[dict[str, str]] = _rules.RULES
+    COST_UNIT: ClassVar[str] = _cost.COST_UNIT
+    PHI_C: ClassVar[float] = _cost.PHI_C
+    POTENTIAL: ClassVar[str] = _cost.POTENTIAL
 
     _root: _Node[K, V] | None
 
@@ -380,77 +367,35 @@ class PairingHeap(PairingAudit, HeapBase[K, V], Generic[K, V]):
             if n:
                 stack.append([x, n, None])
 
-    # Checked mode and to_dot hooks (see pairing_checks.py and the SPI in _core.py).
-    _touched, _survey_local, _dot_edges = _pc.touched, _pc.survey_local, _pc.dot_edges
-    _layout_problem = _pc.layout_problem
-
     def _map_order(self, fn: Callable[[Any, Any], Any]) -> None:
         for x in self._handles():
             x._k = fn(x._k, x._key)
 
+    # Rules, checks and drawing (rules.py); audit hooks (cost.py).
     def _survey(self, report: Any) -> dict[str, Any]:
-        root = self._root
-        seen: dict[int, tuple[Any, str]] = {}
-        if root is not None:
-            seen[id(root)] = (None, "root")
-            if root._prev is not None or root._next is not None:
-                report.fail("links", root, self._path(root, seen), "the root has a sibling link")
-        count = 0
-        height = 0
-        max_degree = 0
-        stack: list[tuple[Any, int]] = [] if root is None else [(root, 0)]
-        while stack:
-            x, depth = stack.pop()
-            count += 1
-            if count > self._n + 1:
-                report.fail("size", x, self._path(x, seen), f"more than {self._n} nodes reachable")
-                break
-            height = max(height, depth)
-            if x not in self:
-                report.fail("ownership", x, self._path(x, seen), "its owner token is not this heap's")
-            degree = 0
-            prev = x
-            c = x._child
-            while c is not None:
-                if id(c) in seen:
-                    report.fail("links", c, self._path(x, seen), "a node is reachable twice")
-                    break
-                seen[id(c)] = (x, f"child {degree}")
-                if c._prev is not prev:
-                    report.fail("links", c, self._path(c, seen), "prev does not point back")
-                if c._k < x._k:
-                    report.fail(
-                        "heap-order", c, self._path(c, seen),
-                        f"key {c._key!r} is smaller than its parent's {x._key!r}",
-                    )
-                stack.append((c, depth + 1))
-                degree += 1
-                prev = c
-                c = c._next
-            max_degree = max(max_degree, degree)
-        if count != self._n:
-            report.fail("size", None, [], f"{count} nodes reachable but len is {self._n}")
-        return {
-            "size": count,
-            "roots": 0 if root is None else 1,
-            "height": height,
-            "max_degree": max_degree,
-            "marked": None,
-            "potential": Sizes(self).phi,
-        }
+        return _rules.survey(self, report)
 
-    #: Audit bounds (module docstring): op -> (a, b), amortized cost <= a log2 n + b.
-    _BOUNDS: ClassVar[dict[str, tuple[int, int]]] = {
-        "pop": (2, 1), "meld": (1, 2), "decrease_key": (1, 3), "remove": (3, 3), "change_key": (4, 4),
-    }
+    def _touched(self, op: str, handle: Any) -> Any:
+        return _rules.touched(self, op, handle)
+
+    def _survey_local(self, report: Any, touched: Any, handle: Any) -> None:
+        _rules.survey_local(self, report, touched, handle)
+
+    def _dot_edges(self) -> Iterator[tuple[Any, Any, str]]:
+        return _rules.dot_edges(self)
+
+    def _layout_problem(self, handles: list[Any], layout: Any) -> str | None:
+        return _rules.layout_problem(self, handles, layout)
+
+    def _phi(self) -> float:
+        return _cost.phi(self)
+
+    def _cost_probe(self, op: str, handle: Any) -> Any:
+        return _cost.probe(self, op, handle)
+
+    def _cost(self, op: str, probe: Any, handle: Any) -> int:
+        return _cost.actual(self, op, probe, handle)
 
     @classmethod
     def _bound(cls, op: str, n: int) -> float:
-        if op == "push":
-            return math.log2(n + 1) + 2
-        a, b = cls._BOUNDS[op]
-        return a * math.log2(n) + b if n > 1 else float(b)
-
-    @staticmethod
-    def _path(x: Any, seen: dict[int, tuple[Any, str]]) -> list[str]:
-        return seen_path(x, seen, "root")
+        return _cost.bound(op, n)
