@@ -3,7 +3,7 @@
 Binary addition on root arrays (index = degree): ``_plan`` and ``_plan_push``
 only compare and record each link as ``(winner, loser)``; ``_apply`` then links
 without comparing.  So an exception from a key's ``<`` always strikes before
-anything moved.  Used by :mod:`heapkit.kinds.binomial`; no recursion anywhere.
+anything moved.  Used by ``heap.py``, ``rules.py`` and ``cost.py``; no recursion anywhere.
 """
 
 from __future__ import annotations
@@ -50,7 +50,7 @@ def _up(x: Any, guard: int) -> tuple[Any, int]:
 
 
 # Precondition: x is a node of a heap of ``n`` entries.  Its ancestors,
-# nearest first.  The walks telescope to O(log n) steps (see binomial.py).
+# nearest first.  The walks telescope to O(log n) steps (see heap.py).
 def _ancestors(x: Any, n: int) -> list[Any]:
     out: list[Any] = []
     p = _up(x, n)[0]

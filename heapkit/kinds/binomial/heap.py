@@ -56,8 +56,9 @@ from collections.abc import Callable, Iterable, Iterator
 from typing import Any, ClassVar, Generic, TypeVar
 
 from heapkit._core import HeapBase, empty_error, nan_error, upward_error
-from heapkit.kinds.binomial_forest import _ancestors, _apply, _Node, _plan, _plan_push, _scan
-from heapkit.kinds.binomial_rules import BinomialRules
+from heapkit.kinds.binomial import cost as _cost
+from heapkit.kinds.binomial import rules as _rules
+from heapkit.kinds.binomial.forest import _ancestors, _apply, _Node, _plan, _plan_push, _scan
 from heapkit.protocol import Handle
 
 __all__ = ["BinomialHeap"]
@@ -66,7 +67,7 @@ K = TypeVar("K")
 V = TypeVar("V")
 
 
-class BinomialHeap(BinomialRules, HeapBase[K, V], Generic[K, V]):
+class BinomialHeap(HeapBase[K, V], Generic[K, V]):
     """Eager binomial heap with handles.
 
     >>> h = BinomialHeap([(5, 'e'), (2, 'b')])
@@ -82,9 +83,10 @@ class BinomialHeap(BinomialRules, HeapBase[K, V], Generic[K, V]):
     BOUNDS: ClassVar[str] = "push O(1) amortized; push, meld, pop, remove, decrease_key, change_key O(log n) worst-case"
     _NODE: ClassVar[type[Any]] = _Node
     WORST_CASE: ClassVar[bool] = False
-    COST_UNIT: ClassVar[str] = "links + roots scanned + 1 (decrease_key: levels moved + 1)"
-    POTENTIAL: ClassVar[str] = "number of trees"
-    PHI_C: ClassVar[float] = 1.0
+    RULES: ClassVar[dict[str, str]] = _rules.RULES
+    COST_UNIT: ClassVar[str] = _cost.COST_UNIT
+    POTENTIAL: ClassVar[str] = _cost.POTENTIAL
+    PHI_C: ClassVar[float] = _cost.PHI_C
 
     _roots: list[Any]
     _min: Any
@@ -421,3 +423,32 @@ class BinomialHeap(BinomialRules, HeapBase[K, V], Generic[K, V]):
     def _map_order(self, fn: Callable[[Any, Any], Any]) -> None:
         for x in self._handles():
             x._k = fn(x._k, x._key)
+
+    # Rules, checks and drawing (rules.py); audit hooks (cost.py).
+    def _layout_problem(self, handles: list[Any], layout: Any) -> str | None:
+        return _rules.layout_problem(self, handles, layout)
+
+    def _survey(self, report: Any) -> dict[str, Any]:
+        return _rules.survey(self, report)
+
+    def _touched(self, op: str, handle: Any) -> list[Any]:
+        return _rules.touched(self, op, handle)
+
+    def _survey_local(self, report: Any, touched: Any, handle: Any) -> None:
+        _rules.survey_local(self, report, touched, handle)
+
+    def _dot_edges(self) -> Iterator[tuple[Any, Any, str]]:
+        return _rules.dot_edges(self)
+
+    def _phi(self) -> float:
+        return _cost.phi(self)
+
+    def _cost_probe(self, op: str, handle: Any) -> Any:
+        return _cost.probe(self, op, handle)
+
+    def _cost(self, op: str, probe: Any, handle: Any) -> int:
+        return _cost.actual(self, op, probe, handle)
+
+    @classmethod
+    def _bound(cls, op: str, n: int) -> float:
+        return _cost.bound(op, n)
