@@ -42,8 +42,9 @@ from collections.abc import Callable, Iterable, Iterator
 from typing import Any, ClassVar, Generic, TypeVar
 
 from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, upward_error
-from heapkit.kinds import _fibonacci_shape as _rules
-from heapkit.kinds._fibonacci_shape import max_degree_bound, ring
+from heapkit.kinds.fibonacci import cost as _cost
+from heapkit.kinds.fibonacci import rules as _rules
+from heapkit.kinds.fibonacci.rings import export, import_, ring, walk
 from heapkit.protocol import Handle
 
 __all__ = ["FibonacciHeap"]
@@ -88,9 +89,9 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
     BOUNDS: ClassVar[str] = "push, meld O(1); decrease_key O(1) amortized; pop, remove, change_key O(log n) amortized"
     _NODE: ClassVar[type[Any]] = _Node
     RULES: ClassVar[dict[str, str]] = _rules.RULES
-    COST_UNIT: ClassVar[str] = "roots scanned + links + cuts + 1"
-    POTENTIAL: ClassVar[str] = "trees + 2 * marked nodes"
-    PHI_C: ClassVar[float] = 2.0
+    COST_UNIT: ClassVar[str] = _cost.COST_UNIT
+    POTENTIAL: ClassVar[str] = _cost.POTENTIAL
+    PHI_C: ClassVar[float] = _cost.PHI_C
 
     _min: _Node[K, V] | None
     _roots: int
@@ -443,13 +444,13 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
         h._tok = h._left = h._right = h._parent = h._child = None
 
     def _handles(self) -> Iterator[_Node[K, V]]:
-        return _rules.walk(self._min)
+        return walk(self._min)
 
     def _export(self) -> tuple[list[Any], tuple[list[int], list[bool]]]:
-        return _rules.export(self._min)
+        return export(self._min)
 
     def _import(self, handles: list[Any], layout: tuple[list[int], list[bool]]) -> None:
-        roots, marks = _rules.import_(handles, layout)
+        roots, marks = import_(handles, layout)
         self._min = roots[0] if roots else None
         self._roots = len(roots)
         self._marks = marks
@@ -458,43 +459,31 @@ class FibonacciHeap(HeapBase[K, V], Generic[K, V]):
         for x in self._handles():
             x._k = fn(x._k, x._key)
 
+    # Rules, checks and drawing (rules.py); audit hooks (cost.py).
     def _survey(self, report: Any) -> dict[str, Any]:
         return _rules.survey(self, report)
 
-    # Checked mode and to_dot hooks (see _fibonacci_shape.py and the SPI in _core.py).
-    _touched, _survey_local, _dot_edges = _rules.touched, _rules.survey_local, _rules.dot_edges
-    _layout_problem = _rules.layout_problem
+    def _touched(self, op: str, handle: Any) -> list[Any]:
+        return _rules.touched(self, op, handle)
 
-    # --- audit -------------------------------------------------------------
+    def _survey_local(self, report: Any, touched: Any, handle: Any) -> None:
+        _rules.survey_local(self, report, touched, handle)
+
+    def _dot_edges(self) -> Iterator[tuple[Any, Any, str]]:
+        return _rules.dot_edges(self)
+
+    def _layout_problem(self, handles: list[Any], layout: Any) -> str | None:
+        return _rules.layout_problem(self, handles, layout)
+
     def _phi(self) -> float:
-        return float(self._roots + 2 * self._marks)
+        return _cost.phi(self)
 
     def _cost_probe(self, op: str, handle: Any) -> Any:
-        self._cons = -1
-        x = self._min if op == "pop" else handle
-        degree = x._degree if isinstance(x, _Node) else 0
-        return self._roots, degree
+        return _cost.probe(self, op, handle)
 
     def _cost(self, op: str, probe: Any, handle: Any) -> int:
-        roots, degree = probe
-        if op in ("push", "meld"):
-            return 1
-        if self._cons >= 0:  # a consolidation ran: its scans and links, plus promotions
-            return 1 + int(degree) + self._cons
-        if op == "remove":  # cuts = roots gained + the removed root
-            return 2 + self._roots - int(roots)
-        return 1 + self._roots - int(roots)  # decrease_key, change_key: one root per cut
+        return _cost.actual(self, op, probe, handle)
 
     @classmethod
     def _bound(cls, op: str, n: int) -> float:
-        d = max_degree_bound(n)
-        return float(
-            {
-                "push": 3,
-                "meld": 1,
-                "decrease_key": 8,
-                "pop": 5 * (d + 1),
-                "remove": max(5 * (d + 1), 3 * d + 6),
-                "change_key": max(5 * (d + 1), 3 * d + 8),
-            }.get(op, 5 * (d + 1))
-        )
+        return _cost.bound(op, n)

@@ -1,22 +1,19 @@
-"""The Fibonacci heap's rules, checked; and its shape walked and flattened.
+"""The Fibonacci heap's rules, checked: the full survey behind ``heapkit.check``,
+the local survey behind checked mode, ``to_dot`` edges and the loading check.
 
 Everything here loops with explicit stacks and ring walks (no recursion on
-depth): the full survey behind ``heapkit.check``, the local survey behind
-checked mode, iteration, and the flat export/import behind copy and pickle.
-The invariants themselves are stated in :mod:`heapkit.kinds.fibonacci`.
+depth).  The invariants themselves are stated in ``heap.py``'s docstring.
 """
 
 from __future__ import annotations
 
-import math
 from collections.abc import Iterator
 from typing import Any
 
 from heapkit._core import HandleBase
 from heapkit.kinds._layout import forest_problem
-
-#: ln of the golden ratio, for D(n) = floor(log_phi n).
-_LN_PHI = math.log((1 + math.sqrt(5)) / 2)
+from heapkit.kinds.fibonacci.cost import max_degree_bound
+from heapkit.kinds.fibonacci.rings import _ring_list
 
 RULES: dict[str, str] = {
     "heap-order": "no child's key is smaller than its parent's",
@@ -29,105 +26,6 @@ RULES: dict[str, str] = {
     "ownership": "every node's owner token resolves to this heap's",
     "counters": "the kept counts of roots and marked nodes match the forest",
 }
-
-
-def max_degree_bound(n: int) -> int:
-    """``D(n) = floor(log_phi n)``, the largest degree a heap of n nodes can hold."""
-    return int(math.log(n) / _LN_PHI + 1e-9) if n > 1 else 0
-
-
-# Precondition: trees is a non-empty list of roots (ring links may be stale).
-# Restores: one closed ring through them in list order.  No comparison.
-def ring(trees: list[Any]) -> None:
-    prev = trees[-1]
-    for t in trees:
-        prev._right = t
-        t._left = prev
-        prev = t
-
-
-def walk(start: Any) -> Iterator[Any]:
-    """Every node of the forest whose root ring holds ``start``, depth first."""
-    if start is None:
-        return
-    stack = [start]
-    while stack:
-        s = stack.pop()
-        x = s
-        while True:
-            yield x
-            if x._child is not None:
-                stack.append(x._child)
-            x = x._right
-            if x is s:
-                break
-
-
-def _ring_list(start: Any) -> list[Any]:
-    out = []
-    if start is not None:
-        x = start
-        while True:
-            out.append(x)
-            x = x._right
-            if x is start:
-                break
-    return out
-
-
-def export(m: Any) -> tuple[list[Any], tuple[list[int], list[bool]]]:
-    """Preorder nodes (roots from the min on) with their degrees and marks."""
-    out: list[Any] = []
-    degrees: list[int] = []
-    marks: list[bool] = []
-    stack = _ring_list(m)
-    stack.reverse()
-    while stack:
-        x = stack.pop()
-        out.append(x)
-        marks.append(bool(x._mark))
-        kids = _ring_list(x._child)
-        degrees.append(len(kids))
-        kids.reverse()
-        stack.extend(kids)
-    return out, (degrees, marks)
-
-
-def import_(handles: list[Any], layout: tuple[list[int], list[bool]]) -> tuple[list[Any], int]:
-    """Relink ``handles`` into the exported shape; return the roots and the mark count."""
-    degrees, marks = layout
-    roots: list[Any] = []
-    stack: list[list[Any]] = []  # [parent, children still to attach]
-    nmarks = 0
-    for x, d, mk in zip(handles, degrees, marks, strict=True):
-        x._parent = x._child = None
-        x._left = x._right = x
-        x._degree = d
-        x._mark = bool(mk)
-        nmarks += x._mark
-        if stack:
-            top = stack[-1]
-            p = top[0]
-            c = p._child
-            if c is None:
-                p._child = x
-            else:
-                cl = c._left
-                x._left = cl
-                x._right = c
-                cl._right = x
-                c._left = x
-            x._parent = p
-            top[1] -= 1
-            if top[1] == 0:
-                stack.pop()
-        else:
-            roots.append(x)
-        if d:
-            stack.append([x, d])
-    if roots:
-        ring(roots)
-    return roots, nmarks
 
 
 def _is_node(x: Any) -> bool:
