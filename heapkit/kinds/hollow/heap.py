@@ -54,7 +54,9 @@ from collections.abc import Callable, Iterable, Iterator
 from typing import Any, ClassVar, Generic, TypeVar
 
 from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, upward_error
-from heapkit.kinds._hollow_dag import Node, children, delete_root, max_rank, survey, survey_local
+from heapkit.kinds.hollow import cost as _cost
+from heapkit.kinds.hollow import rules as _rules
+from heapkit.kinds.hollow.dag import Node, children, delete_root
 from heapkit.protocol import Handle
 
 __all__ = ["HollowHeap"]
@@ -91,18 +93,10 @@ class HollowHeap(HeapBase[K, V], Generic[K, V]):
     KIND: ClassVar[str] = "hollow"
     BOUNDS: ClassVar[str] = "push, meld, decrease_key O(1) worst-case; pop, remove, change_key O(log n) amortized"
     _NODE: ClassVar[type[Any]] = _Entry
-    RULES: ClassVar[dict[str, str]] = {
-        "heap-order": "no node of the DAG is smaller than a parent (hollow nodes keep their key)",
-        "rank": "a full node of rank r has ranked children of ranks r-1..0; a hollow one a prefix",
-        "second-parent": "a second parent is only for a hollow node, the last of its unranked list",
-        "root": "the root is full, has no parent or sibling, and no full node is smaller",
-        "size": "the full nodes number len(heap); the hollow count matches and stays bounded",
-        "ownership": "every handle's owner token resolves to this heap's",
-        "handle": "a live handle and its full node point at each other with the same key",
-    }
-    COST_UNIT: ClassVar[str] = "links + hollow nodes destroyed + 1"
-    POTENTIAL: ClassVar[str] = "unranked edges + ranked children of hollow nodes + hollow nodes"
-    PHI_C: ClassVar[float] = 2.0
+    RULES: ClassVar[dict[str, str]] = _rules.RULES
+    COST_UNIT: ClassVar[str] = _cost.COST_UNIT
+    POTENTIAL: ClassVar[str] = _cost.POTENTIAL
+    PHI_C: ClassVar[float] = _cost.PHI_C
 
     _root: Node | None
     _h: int
@@ -386,29 +380,25 @@ class HollowHeap(HeapBase[K, V], Generic[K, V]):
             if v.item is not None:
                 v.item._k = v.k
 
-    # --- audit ----------------------------------------------------------------
+    # Rules, checks and drawing (rules.py); audit hooks (cost.py).
+    def _survey(self, report: Any) -> dict[str, Any]:
+        return _rules.survey(self, report)
+
+    def _touched(self, op: str, handle: Any) -> Any:
+        return _rules.touched(self, op, handle)
+
+    def _survey_local(self, report: Any, touched: Any, handle: Any) -> None:
+        _rules.survey_local(self, report, touched, handle)
+
     def _phi(self) -> float:
-        return float(self._u + self._hr + self._h)
+        return _cost.phi(self)
 
     def _cost_probe(self, op: str, handle: Any) -> Any:
-        return self._work
+        return _cost.probe(self, op, handle)
 
     def _cost(self, op: str, probe: Any, handle: Any) -> int:
-        return 1 + self._work - int(probe)
+        return _cost.actual(self, op, probe, handle)
 
     @classmethod
     def _bound(cls, op: str, n: int) -> float:
-        """Amortized bound at size n (R: the rank bound for at most 3n + 17 nodes)."""
-        r = max_rank(n)
-        table = {"push": 4, "meld": 4, "decrease_key": 12, "change_key": 4 * r + 10}
-        return float(table.get(op, 4 * r + 6))
-
-    def _touched(self, op: str, handle: Any) -> Any:
-        node = getattr(handle, "_node", None) if op != "meld" else None
-        return [self._root, node]
-
-    def _survey_local(self, report: Any, touched: Any, handle: Any) -> None:
-        survey_local(self, report, [*touched, getattr(handle, "_node", None), self._root])
-
-    def _survey(self, report: Any) -> dict[str, Any]:
-        return survey(self, report)
+        return _cost.bound(op, n)
