@@ -52,10 +52,8 @@ from heapq import heapify, heappop, heappush
 from typing import Any, ClassVar, Generic, TypeVar
 
 from heapkit._core import (
-    WRAPPERS,
     HeapBase,
     Owner,
-    Stable,
     empty_error,
     foreign_error,
     nan_error,
@@ -63,7 +61,9 @@ from heapkit._core import (
     upward_error,
 )
 from heapkit.errors import InvalidHandleError
-from heapkit.kinds._lazy_entries import (
+from heapkit.kinds.lazy import cost as _cost
+from heapkit.kinds.lazy import rules as _rules
+from heapkit.kinds.lazy.entries import (
     _RAW,
     _fresh,
     _Handle,
@@ -73,11 +73,8 @@ from heapkit.kinds._lazy_entries import (
     _unpop,
     _unpush,
     _user_key,
-    dot_edges,
     flatten,
-    layout_problem,
     rebuild,
-    slot_path,
 )
 from heapkit.protocol import Handle
 
@@ -100,18 +97,10 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
     KIND: ClassVar[str] = "lazy"
     BOUNDS: ClassVar[str] = "push O(log n); pop, decrease_key, change_key O(log n) amortized; remove O(1) amortized"
     WORST_CASE: ClassVar[bool] = False
-    RULES: ClassVar[dict[str, str]] = {
-        "heap-order": "no entry of the list (stale ones included) is below its parent a[(i - 1) // 2]",
-        "stale-count": "the stale counter equals the number of stale entries in the list",
-        "entry": "no entry stands in the list twice",
-        "size": "the list holds len(heap) live entries",
-        "stale-bound": "stale entries number at most len(heap) + 1",
-        "bare-keys": "every ordering object is an exact int/float/str or a never-equal wrapper",
-        "ownership": "every entry carries this heap's owner token and every live handle is in it",
-    }
-    COST_UNIT: ClassVar[str] = "entries moved through the C heap (pushed, popped or rebuilt)"
-    POTENTIAL: ClassVar[str] = "number of stale entries"
-    PHI_C: ClassVar[float] = 1.0
+    RULES: ClassVar[dict[str, str]] = _rules.RULES
+    COST_UNIT: ClassVar[str] = _cost.COST_UNIT
+    POTENTIAL: ClassVar[str] = _cost.POTENTIAL
+    PHI_C: ClassVar[float] = _cost.PHI_C
 
     _a: list[tuple[Any, _Handle[K, V], Owner]]
     _stale: int
@@ -379,7 +368,8 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
     def _import(self, handles: list[Any], layout: list[Any]) -> None:
         self._a, self._stale = rebuild(handles, layout, self._tok, self._wrap)
 
-    _layout_problem = layout_problem
+    def _layout_problem(self, handles: list[Any], layout: Any) -> str | None:
+        return _rules.layout_problem(self, handles, layout)
 
     def __setstate__(self, state: tuple[list[Any], Any]) -> None:
         handles, layout = self._validate(state, _Handle)
@@ -409,90 +399,28 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
         if wrap is None:
             self._map_order(lambda o, key: _normal(o))
 
-    # --- check and audit -----------------------------------------------------
-    _path = staticmethod(slot_path)
-
+    # Rules, checks and drawing (rules.py); audit hooks (cost.py).
     def _survey(self, report: Any) -> dict[str, Any]:
-        a = self._a
-        tok = self._tok
-        seen: set[int] = set()
-        live = stale = 0
-        for i, e in enumerate(a):
-            h = e[1]
-            if id(e) in seen:
-                report.fail("entry", h, self._path(i), "this entry stands in the list twice")
-                continue
-            seen.add(id(e))
-            if h._e is e:
-                live += 1
-            else:
-                stale += 1
-            if e[2] is not tok:
-                report.fail("ownership", h, self._path(i), "the entry carries another owner token")
-            t = type(e[0])
-            if not (t in _RAW or t is _Ord or t is Stable or t in WRAPPERS):
-                report.fail("bare-keys", h, self._path(i), f"ordering object {e[0]!r} is a bare {t.__name__}")
-            if i and e < a[(i - 1) >> 1]:
-                report.fail(
-                    "heap-order", h, self._path(i),
-                    f"key {_user_key(e[0])!r} is smaller than its parent's {_user_key(a[(i - 1) >> 1][0])!r}",
-                )
-        if stale != self._stale:
-            report.fail("stale-count", None, [], f"{stale} stale entries, the counter says {self._stale}")
-        if live != self._n:
-            report.fail("size", None, [], f"the list holds {live} live entries but len is {self._n}")
-        if self._stale > self._n + 1:
-            report.fail("stale-bound", None, [], f"{self._stale} stale entries for {self._n} live ones")
-        n = len(a)
-        return {
-            "size": live,
-            "roots": 1 if live else 0,
-            "height": max(0, n.bit_length() - 1),
-            "max_degree": min(2, max(0, n - 1)),
-            "marked": None,
-            "potential": float(self._stale),
-            "details": {"entries": n, "stale": stale},
-        }
+        return _rules.survey(self, report)
+
+    def _touched(self, op: str, handle: Any) -> Any:
+        return _rules.touched(self, op, handle)
+
+    def _survey_local(self, report: Any, touched: Any, handle: Any) -> None:
+        _rules.survey_local(self, report, touched, handle)
+
+    def _dot_edges(self) -> Iterator[tuple[Any, Any, str]]:
+        return _rules.dot_edges(self)
 
     def _phi(self) -> float:
-        return float(self._stale)
+        return _cost.phi(self)
 
     def _cost_probe(self, op: str, handle: Any) -> Any:
-        compacts = self._stale >= self._n > 0 and op in ("pop", "decrease_key", "change_key", "remove")
-        if op == "meld":
-            m = sum(1 for e in handle._a if e[1]._e is e)
-            return m if self._pushes_win(m) else self._n + m
-        return (len(self._a), self._n if compacts else 0)
+        return _cost.probe(self, op, handle)
 
     def _cost(self, op: str, probe: Any, handle: Any) -> int:
-        if op == "meld":
-            return int(probe)
-        size: int = probe[0]
-        rebuilt: int = probe[1]
-        if op == "pop":
-            # Entries popped (a compaction leaves `rebuilt` entries in the list first).
-            return rebuilt + (rebuilt if rebuilt else size) - len(self._a)
-        if op in ("push", "decrease_key", "change_key"):
-            return 1 + rebuilt
-        return rebuilt
+        return _cost.actual(self, op, probe, handle)
 
     @classmethod
     def _bound(cls, op: str, n: int) -> float:
-        return {"push": 1, "pop": 1, "decrease_key": 2, "change_key": 2, "remove": 1}.get(op, n)
-
-    def _touched(self, op: str, handle: Any) -> Any:
-        return None
-
-    _dot_edges = dot_edges  # to_dot hook: every slot, stale ones too (see _lazy_entries.py)
-
-    def _survey_local(self, report: Any, touched: Any, handle: Any) -> None:
-        a = self._a
-        for i in (1, 2):
-            if i < len(a) and a[i] < a[0]:
-                report.fail("heap-order", a[i][1], self._path(i), "smaller than the root")
-        if len(a) - self._stale != self._n:
-            report.fail("size", None, [], f"{len(a)} entries, {self._stale} stale, but len is {self._n}")
-        if self._stale > self._n + 1:
-            report.fail("stale-bound", None, [], f"{self._stale} stale entries for {self._n} live ones")
-        if isinstance(handle, _Handle) and type(handle._e) is tuple and handle._e[2] is not self._tok:
-            report.fail("ownership", handle, [], "the handle's entry carries another owner token")
+        return _cost.bound(op, n)

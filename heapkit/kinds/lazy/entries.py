@@ -9,7 +9,6 @@ user ``==``; tied bare keys compare the handles, and no handle is smaller.
 from __future__ import annotations
 
 import operator
-from collections.abc import Iterator
 from typing import Any, TypeVar
 
 from heapkit._core import WRAPPERS, LeafHandle, Stable, seq_of
@@ -178,27 +177,6 @@ def flatten(a: list[Any]) -> tuple[list[Any], list[Any]]:
     return handles, layout
 
 
-def layout_problem(heap: Any, handles: list[Any], layout: Any) -> str | None:
-    """Loading: one ``None`` slot per handle, at most ``len + 1`` stale slots.  O(n)."""
-    if type(layout) is not list:
-        return f"expected a list of slots, got {layout!r:.80}"
-    live = layout.count(None)
-    if live != len(handles) or len(layout) - live > live + 1:
-        return f"{live} live and {len(layout) - live} stale slots for {len(handles)} handles"
-    return None
-
-
-def slot_path(i: int) -> list[str]:
-    """Steps from the root to slot ``i`` of the list (``child 0``/``child 1``)."""
-    steps: list[str] = []
-    while i > 0:
-        steps.append(f"child {(i - 1) & 1}")
-        i = (i - 1) >> 1
-    steps.append("root")
-    steps.reverse()
-    return steps
-
-
 def rebuild(handles: list[Any], layout: list[Any], tok: Any, wrap: Any) -> tuple[list[Any], int]:
     """The exact list from ``flatten``'s data (handles hold their ordering object
     in ``_e``); stale slots get the ghost handle.  No comparison.  Returns the
@@ -223,56 +201,3 @@ def _remade(k: Any, wrap: Any) -> Any:
     if wrap is None:
         return k if type(k) in _RAW or type(k) is _Ord else _order(_user_key(k))
     return k if type(k) is Stable else wrap(_user_key(k), k)
-
-
-class _StaleSlot:
-    """A stale entry as ``to_dot`` draws it: the key it had when it went stale."""
-
-    __slots__ = ("key",)
-
-    def __init__(self, key: Any) -> None:
-        self.key = key
-
-
-class _Drawing:
-    """:func:`dot_edges`' triples, knowing how many there are in all (the list's
-    length): ``to_dot`` reads ``operator.length_hint`` for its counts."""
-
-    __slots__ = ("_it", "_n")
-
-    def __init__(self, it: Iterator[tuple[Any, Any, str]], n: int) -> None:
-        self._it = it
-        self._n = n
-
-    def __iter__(self) -> _Drawing:
-        return self
-
-    def __next__(self) -> tuple[Any, Any, str]:
-        return next(self._it)
-
-    def __length_hint__(self) -> int:
-        return self._n
-
-
-def dot_edges(heap: Any) -> _Drawing:
-    """Every slot of the list in order with its array parent ``(i - 1) // 2``:
-    ``(parent or None, handle, "[i]")`` for a live entry and ``(parent or
-    None, slot, "[i], stale")`` for a stale one.  Stale entries are drawn
-    because they are part of the structure: heap order spans them, they hold
-    up the live entries below them (without them the tree falls apart), and
-    their number is the potential a pop pays off.  Lazy, O(1) per slot."""
-    return _Drawing(_slots(heap._a), len(heap._a))
-
-
-def _slots(a: list[Any]) -> Iterator[tuple[Any, Any, str]]:
-    drawn: list[Any] = []
-    for i, e in enumerate(a):
-        h = e[1]
-        if h._e is e:
-            node: Any = h
-            extra = f"[{i}]"
-        else:  # its handle may be live elsewhere in the list, dead, or the ghost
-            node = _StaleSlot(_user_key(e[0]))
-            extra = f"[{i}], stale"
-        drawn.append(node)
-        yield (drawn[(i - 1) >> 1] if i else None), node, extra
