@@ -56,32 +56,20 @@ imperfectly, so the weights above are this module's own derivation in its style.
 
 from __future__ import annotations
 
-import math
 from collections.abc import Callable, Iterable, Iterator
 from typing import Any, ClassVar, Generic, TypeVar
 
 from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, upward_error
-from heapkit.kinds._rank_pairing_cuts import cut, enlist, ring, spill, unspine
-from heapkit.kinds._rank_pairing_rules import (
-    dot_edges,
-    export_trees,
-    import_trees,
-    layout_problem,
-    nodes_of,
-    roots_of,
-    survey,
-    survey_local,
-    tally,
-)
+from heapkit.kinds.rank_pairing import cost as _cost
+from heapkit.kinds.rank_pairing import rules as _rules
+from heapkit.kinds.rank_pairing.cuts import cut, enlist, ring, spill, unspine
+from heapkit.kinds.rank_pairing.trees import export_trees, import_trees, nodes_of, roots_of, tally
 from heapkit.protocol import Handle
 
 __all__ = ["RankPairingHeap"]
 
 K = TypeVar("K")
 V = TypeVar("V")
-
-_LOG_PHI = math.log((1 + math.sqrt(5)) / 2)
-
 
 class _Node(HandleBase[K, V]):
     """Handle and node: ``_left``, ``_right``, ``_up`` (parent; None at a root),
@@ -117,19 +105,10 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
     KIND: ClassVar[str] = "rank-pairing"
     BOUNDS: ClassVar[str] = "push, meld, decrease_key O(1) amortized; pop, remove, change_key O(log n) amortized"
     _NODE: ClassVar[type[Any]] = _Node
-    RULES: ClassVar[dict[str, str]] = {
-        "half-order": "no node is smaller than the node whose left subtree holds it",
-        "half-tree": "roots have no right child",
-        "rank": "roots are one above their left child; other nodes follow the type-2 rule",
-        "links": "up/left/right and root-list links agree; no node twice",
-        "min-first": "the first root is not larger than any root",
-        "size": "the nodes reachable from the roots number len(heap)",
-        "ownership": "every node's owner token resolves to this heap's",
-        "tally": "the rank-sum, root and 0,i-node counters match the structure",
-    }
-    COST_UNIT: ClassVar[str] = "links + cuts + ranks written + roots scanned + 1"
-    POTENTIAL: ClassVar[str] = "7*sum of non-root rank differences + 6*#0,i-nodes + 18*#roots"
-    PHI_C: ClassVar[float] = 1.0
+    RULES: ClassVar[dict[str, str]] = _rules.RULES
+    COST_UNIT: ClassVar[str] = _cost.COST_UNIT
+    POTENTIAL: ClassVar[str] = _cost.POTENTIAL
+    PHI_C: ClassVar[float] = _cost.PHI_C
 
     _first: _Node[K, V] | None
     _bins: list[Any]
@@ -455,42 +434,31 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
         for x in self._handles():
             x._k = fn(x._k, x._key)
 
+    # Rules, checks and drawing (rules.py); audit hooks (cost.py).
     def _survey(self, report: Any) -> dict[str, Any]:
-        figures = survey(self, report)
-        figures["potential"] = self._phi()
-        return figures
+        return _rules.survey(self, report)
 
     def _touched(self, op: str, handle: Any) -> tuple[Any, ...]:
-        x = handle if isinstance(handle, _Node) else None
-        if x is None:
-            return (self._first,)
-        return (x, x._up, x._left, x._right, self._first)
+        return _rules.touched(self, op, handle)
 
     def _survey_local(self, report: Any, touched: Any, handle: Any) -> None:
-        survey_local(self, report, touched)
+        _rules.survey_local(self, report, touched)
 
-    _dot_edges = dot_edges  # to_dot hook (see _rank_pairing_rules.py and the SPI in _core.py)
-    _layout_problem = layout_problem
+    def _dot_edges(self) -> Iterator[tuple[Any, Any, str]]:
+        return _rules.dot_edges(self)
 
-    # --- audit -------------------------------------------------------------
+    def _layout_problem(self, handles: list[Any], layout: Any) -> str | None:
+        return _rules.layout_problem(self, handles, layout)
+
     def _phi(self) -> float:
-        """The potential (see the module docstring).  O(1)."""
-        return float(7 * self._rs + 7 * self._n + 11 * self._rt + 6 * self._zs)
+        return _cost.phi(self)
 
     def _cost_probe(self, op: str, handle: Any) -> int:
-        return self._work
+        return _cost.probe(self, op, handle)
 
     def _cost(self, op: str, probe: Any, handle: Any) -> int:
-        return int(self._work - probe + 1)
+        return _cost.actual(self, op, probe, handle)
 
     @classmethod
     def _bound(cls, op: str, n: int) -> float:
-        lg = math.log(n) / _LOG_PHI if n > 1 else 0.0
-        return {
-            "push": 19.0,
-            "meld": 1.0,
-            "decrease_key": 28.0,
-            "pop": 8 * lg,
-            "remove": 8 * lg + 16,
-            "change_key": 8 * lg + 35,
-        }.get(op, 8 * lg + 35)
+        return _cost.bound(op, n)

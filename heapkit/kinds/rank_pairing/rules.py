@@ -1,8 +1,7 @@
-"""The rules of :mod:`heapkit.kinds.rank_pairing` checked from outside the fast path.
+"""The rules of the rank-pairing heap checked from outside the fast path.
 
-Full survey, local survey (checked mode) and the flat export/import used by copy
-and pickle; all iterative.  The rules themselves are stated in the kind's module
-docstring and ``RankPairingHeap.RULES``.
+Full survey, local survey (checked mode), loading check and ``to_dot`` edges; all
+iterative.  The rules themselves are stated in ``heap.py``'s docstring and ``RULES``.
 """
 
 from __future__ import annotations
@@ -11,11 +10,21 @@ from collections.abc import Iterator
 from typing import Any
 
 from heapkit._core import seen_path
+from heapkit.kinds.rank_pairing.trees import tally
 
-__all__ = [
-    "dot_edges", "export_trees", "import_trees", "nodes_of", "roots_of", "survey", "survey_local", "tally",
-    "type2_rank",
-]
+__all__ = ["RULES", "dot_edges", "layout_problem", "survey", "survey_local", "touched", "type2_rank"]
+
+
+RULES: dict[str, str] = {
+    "half-order": "no node is smaller than the node whose left subtree holds it",
+    "half-tree": "roots have no right child",
+    "rank": "roots are one above their left child; other nodes follow the type-2 rule",
+    "links": "up/left/right and root-list links agree; no node twice",
+    "min-first": "the first root is not larger than any root",
+    "size": "the nodes reachable from the roots number len(heap)",
+    "ownership": "every node's owner token resolves to this heap's",
+    "tally": "the rank-sum, root and 0,i-node counters match the structure",
+}
 
 
 def type2_rank(a: int, b: int) -> int:
@@ -45,6 +54,21 @@ def _rank_error(x: Any, root: bool) -> str | None:
 
 
 def survey(heap: Any, report: Any) -> dict[str, Any]:
+    """Check every rule in O(n); return the figures of :class:`heapkit.Shape`."""
+    figures = _survey(heap, report)
+    figures["potential"] = heap._phi()
+    return figures
+
+
+def touched(heap: Any, op: str, handle: Any) -> tuple[Any, ...]:
+    """The handle's node and its neighbours, and the first root: O(1)."""
+    x = handle if isinstance(handle, heap._NODE) else None
+    if x is None:
+        return (heap._first,)
+    return (x, x._up, x._left, x._right, heap._first)
+
+
+def _survey(heap: Any, report: Any) -> dict[str, Any]:
     """Check every rule in O(n); return the figures of a Shape (but the potential)."""
     n = heap._n
     first = heap._first
@@ -189,47 +213,6 @@ def _survey_node(report: Any, x: Any, first: Any, n: int) -> None:
         report.fail("min-first", x, _up_path(x, n), f"key {x._key!r} is smaller than the first root's")
 
 
-def export_trees(roots: list[Any]) -> tuple[list[Any], list[int]]:
-    """Preorder of every half-tree (first root first) and one code per node:
-    ``rank * 4 + 2 * has_left + has_right``."""
-    out: list[Any] = []
-    codes: list[int] = []
-    for root in roots:
-        stack = [root]
-        while stack:
-            x = stack.pop()
-            out.append(x)
-            codes.append(x._rank * 4 + (2 if x._left is not None else 0) + (x._right is not None))
-            if x._right is not None:
-                stack.append(x._right)
-            if x._left is not None:
-                stack.append(x._left)
-    return out, codes
-
-
-def import_trees(handles: list[Any], codes: list[int]) -> list[Any]:
-    """Relink nodes from :func:`export_trees`' data; return the roots in order."""
-    roots: list[Any] = []
-    slots: list[tuple[Any, bool]] = []
-    for x, code in zip(handles, codes, strict=True):
-        x._left = x._right = x._up = x._next = x._prev = None
-        x._rank = code >> 2
-        if slots:
-            p, is_left = slots.pop()
-            if is_left:
-                p._left = x
-            else:
-                p._right = x
-            x._up = p
-        else:
-            roots.append(x)
-        if code & 1:
-            slots.append((x, False))
-        if code & 2:
-            slots.append((x, True))
-    return roots
-
-
 def layout_problem(heap: Any, handles: list[Any], layout: Any) -> str | None:
     """Loading: :func:`export_trees`' codes must close every half-tree, and a root
     has no right child.  O(n)."""
@@ -245,53 +228,6 @@ def layout_problem(heap: Any, handles: list[Any], layout: Any) -> str | None:
             return f"root {i} has a right child"
         open_ += (c & 1) + (c >> 1 & 1)
     return f"{open_} announced child(ren) missing" if open_ else None
-
-
-def roots_of(heap: Any) -> list[Any]:
-    """The roots in list order, first root first (stops on a broken list)."""
-    first = heap._first
-    out: list[Any] = []
-    x = first
-    while x is not None and len(out) <= heap._n:
-        out.append(x)
-        x = x._next
-        if x is first:
-            break
-    return out
-
-
-def nodes_of(heap: Any) -> Iterator[Any]:
-    """Every node, root by root, each half-tree in preorder; iteratively."""
-    for root in roots_of(heap):
-        stack = [root]
-        while stack:
-            x = stack.pop()
-            yield x
-            if x._right is not None:
-                stack.append(x._right)
-            if x._left is not None:
-                stack.append(x._left)
-
-
-def tally(roots: list[Any]) -> tuple[int, int, int]:
-    """(rank sum, roots, non-root 0,i-nodes) from scratch, iteratively.  O(n)."""
-    rs = zs = 0
-    for root in roots:
-        rs += root._rank
-        stack = [] if root._left is None else [root._left]
-        while stack:
-            x = stack.pop()
-            rs += x._rank
-            left, right = x._left, x._right
-            a = -1 if left is None else left._rank
-            b = -1 if right is None else right._rank
-            if a - b > 1 or b - a > 1:
-                zs += 1
-            if left is not None:
-                stack.append(left)
-            if right is not None:
-                stack.append(right)
-    return rs, len(roots), zs
 
 
 def dot_edges(heap: Any) -> Iterator[tuple[Any, Any, str]]:

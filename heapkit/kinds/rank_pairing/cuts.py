@@ -3,7 +3,7 @@
 Root-list splicing, the cut of a node with its left subtree followed by the
 rank-reduction walk (type-2 rule), and the spilling of a left spine into roots.
 Each keeps the heap's counters (rank sum, roots, 0,i-nodes, work) exact.  The
-rules are stated in :mod:`heapkit.kinds.rank_pairing`.
+rules are stated in ``heap.py``.
 """
 
 from __future__ import annotations
