@@ -11,7 +11,7 @@ from collections.abc import Iterator
 from typing import Any
 
 from heapkit._core import HandleBase
-from heapkit.kinds._layout import forest_problem
+from heapkit.kinds._shared_layout import forest_problem
 from heapkit.kinds.fibonacci.cost import max_degree_bound
 from heapkit.kinds.fibonacci.rings import _ring_list
 

@@ -27,7 +27,7 @@ from collections.abc import Iterator
 from typing import Any
 
 from heapkit._core import seen_path
-from heapkit.kinds._layout import forest_problem
+from heapkit.kinds._shared_layout import forest_problem
 from heapkit.kinds.pairing.cost import Sizes
 from heapkit.kinds.pairing.links import _children
 

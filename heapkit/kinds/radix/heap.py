@@ -53,7 +53,8 @@ from typing import Any, ClassVar, Generic, TypeVar
 
 from heapkit._core import HandleBase, HeapBase, empty_error, upward_error
 from heapkit.errors import KeyOrderError
-from heapkit.kinds._layout import bucket_problem
+from heapkit.kinds.radix import cost as _cost
+from heapkit.kinds.radix import rules as _rules
 from heapkit.protocol import Handle
 
 __all__ = ["RadixHeap"]
@@ -122,17 +123,10 @@ class RadixHeap(HeapBase[K, V], Generic[K, V]):
     BOUNDS: ClassVar[str] = "monotone int keys; push, decrease_key, remove O(1); pop O(log C) amortized"
     #: Takes only monotone non-negative int keys (the benchmark and tools select by this).
     MONOTONE: ClassVar[bool] = True
-    RULES: ClassVar[dict[str, str]] = {
-        "key-type": "every key is a non-negative int (not a bool)",
-        "monotone": "no key is below the last popped key",
-        "bucket": "an entry with key k sits in bucket (k ^ last).bit_length()",
-        "index": "every handle's bucket and position are where it stands",
-        "size": "the buckets hold len(heap) entries",
-        "ownership": "every handle's owner token resolves to this heap's",
-    }
-    COST_UNIT: ClassVar[str] = "entries examined + buckets skipped + 1"
-    POTENTIAL: ClassVar[str] = "sum over entries of the bucket index (k ^ last).bit_length()"
-    PHI_C: ClassVar[float] = 1.0
+    RULES: ClassVar[dict[str, str]] = _rules.RULES
+    COST_UNIT: ClassVar[str] = _cost.COST_UNIT
+    POTENTIAL: ClassVar[str] = _cost.POTENTIAL
+    PHI_C: ClassVar[float] = _cost.PHI_C
 
     _buckets: list[list[_Item[K, V]]]
     _last: int
@@ -372,7 +366,7 @@ class RadixHeap(HeapBase[K, V], Generic[K, V]):
         return out, (self._last, [len(bl) for bl in self._buckets])
 
     def _layout_problem(self, handles: list[Any], layout: Any) -> str | None:
-        return bucket_problem(handles, layout, MAX_BITS)
+        return _rules.layout_problem(self, handles, layout)
 
     def _import(self, handles: list[Any], layout: tuple[int, list[int]]) -> None:
         last, sizes = layout
@@ -392,102 +386,25 @@ class RadixHeap(HeapBase[K, V], Generic[K, V]):
         for x in self._handles():
             x._k = fn(x._k, x._key)
 
-    # --- audit ----------------------------------------------------------------
-    def _phi(self) -> float:
-        """Sum of bucket indices, O(number of buckets)."""
-        return float(sum(b * len(bl) for b, bl in enumerate(self._buckets)))
-
-    def _cost_probe(self, op: str, handle: Any) -> Any:
-        if op == "meld":
-            return len(handle)
-        if op != "pop" or not self._n:
-            return None
-        buckets = self._buckets
-        if buckets[0]:
-            return (0, len(buckets[0]))
-        j = next(b for b, bl in enumerate(buckets) if bl)
-        return (j, len(buckets[j]))
-
-    def _cost(self, op: str, probe: Any, handle: Any) -> int:
-        if op == "meld":
-            return 1 + (0 if probe is None else int(probe))
-        if op != "pop" or probe is None:
-            return 1
-        j, s = int(probe[0]), int(probe[1])
-        if j == 0:
-            return s if self._stable else 1
-        return 1 + j + s + (s if self._stable else 0)
-
-    def _bound(self, op: str, n: int) -> float:
-        """The amortized bound at size n; D = buckets in use (grows with log2 C)."""
-        d = len(self._buckets)
-        extra = n + 1 if self._stable else 0
-        if op == "pop":
-            return 2.0 + extra
-        if op in ("decrease_key", "remove"):
-            return 1.0
-        if op == "meld":
-            return n + 1.0
-        return 1.0 + d
+    # Rules, checks and drawing (rules.py); audit hooks (cost.py).
+    def _survey(self, report: Any) -> dict[str, Any]:
+        return _rules.survey(self, report)
 
     def _touched(self, op: str, handle: Any) -> Any:
-        if op == "pop":
-            buckets = self._buckets
-            src = next(filter(None, buckets), [])
-            return list(src) + list(buckets[0])
-        if op == "meld":
-            return list(handle._handles()) if isinstance(handle, RadixHeap) else []
-        return [] if handle is None else [handle]
+        return _rules.touched(self, op, handle)
 
     def _survey_local(self, report: Any, touched: Any, handle: Any) -> None:
-        buckets = self._buckets
-        last = self._last
-        if isinstance(handle, _Item):
-            touched = [*touched, handle]
-        for x in touched:
-            if x._tok is None:
-                continue
-            key = x._key
-            b = (key ^ last).bit_length() if type(key) is int else 0
-            i = x._i
-            where = buckets[b] if b < len(buckets) else []
-            if not (0 <= i < len(where) and where[i] is x):
-                report.fail("index", x, [f"bucket {b}"], "the handle's key and slot do not lead to it")
-            else:
-                self._check_entry(report, x, b, i)
+        _rules.survey_local(self, report, touched, handle)
 
-    # --- check ----------------------------------------------------------------
-    # Checks x, found (or expected) at slot i of bucket b, against every rule.
-    def _check_entry(self, report: Any, x: Any, b: int, i: int) -> None:
-        last = self._last
-        path = [f"bucket {b}", f"slot {i}"]
-        if x._i != i:
-            report.fail("index", x, path, f"the handle says slot {x._i}, it stands at slot {i}")
-        if x not in self:
-            report.fail("ownership", x, path, "its owner token is not this heap's")
-        key = x._key
-        if type(key) is bool or not isinstance(key, int) or key < 0:
-            report.fail("key-type", x, path, f"key {key!r} is not a non-negative int")
-            return
-        if key < last:
-            report.fail("monotone", x, path, f"key {key!r} is below the last popped key {last!r}")
-        want = (key ^ last).bit_length()
-        if want != b:
-            report.fail("bucket", x, path, f"key {key!r} belongs in bucket {want}, not {b}")
+    def _phi(self) -> float:
+        return _cost.phi(self)
 
-    def _survey(self, report: Any) -> dict[str, Any]:
-        for b, bl in enumerate(self._buckets):
-            for i, x in enumerate(bl):
-                self._check_entry(report, x, b, i)
-        total = sum(len(bl) for bl in self._buckets)
-        if total != self._n:
-            report.fail("size", None, [], f"the buckets hold {total} entries but len is {self._n}")
-        return {
-            "size": total,
-            "roots": sum(1 for bl in self._buckets if bl),
-            "height": 0,
-            "max_degree": max((len(bl) for bl in self._buckets), default=0),
-            "marked": None,
-            "potential": self._phi(),
-            "details": {"last": self._last, "buckets": len(self._buckets)},
-        }
+    def _cost_probe(self, op: str, handle: Any) -> Any:
+        return _cost.probe(self, op, handle)
+
+    def _cost(self, op: str, probe: Any, handle: Any) -> int:
+        return _cost.actual(self, op, probe, handle)
+
+    # An instance method, not a classmethod: the bound depends on the buckets in use.
+    def _bound(self, op: str, n: int) -> float:
+        return _cost.bound(self, op, n)
