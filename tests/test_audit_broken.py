@@ -22,8 +22,8 @@ import pytest
 import heapkit
 from heapkit.audit import audit
 from heapkit.errors import BoundExceededError, InvariantError
-from heapkit.kinds._fibonacci_shape import walk
 from heapkit.kinds.fibonacci import FibonacciHeap
+from heapkit.kinds.fibonacci.rings import walk
 
 K = 10  # the degree the broken heap reaches with only K + 1 nodes
 

@@ -14,7 +14,7 @@ import pytest
 
 import heapkit
 from heapkit.errors import nan_inside
-from heapkit.kinds import radix
+from heapkit.kinds.radix import heap as radix
 from tests.kinds import NAMES, make
 
 NAN = float("nan")

@@ -22,7 +22,7 @@ import heapkit
 from heapkit import checked
 from heapkit._core import Owner
 from heapkit.errors import InvariantError
-from heapkit.kinds import dary_checks
+from heapkit.kinds.dary import rules as dary_rules
 from tests.corruption import local_rules
 from tests.kinds import monotone
 
@@ -82,7 +82,7 @@ def _operate(data: Any, h: Any, live: list[Any]) -> tuple[Any, Any]:
 
 
 def _covered(h: Any, touched: Any, subject: Any) -> list[Any]:
-    """What the local survey covers after the op (see dary_checks / pairing_checks)."""
+    """What the local survey covers after the op (see kinds/dary/rules.py / kinds/pairing/rules.py)."""
     if heapkit.check(h).kind == "pairing":
         nodes = [x for x in touched if x is not None]
         if subject is not None and hasattr(subject, "_child"):
@@ -90,7 +90,7 @@ def _covered(h: Any, touched: Any, subject: Any) -> list[Any]:
         if h._root is not None:
             nodes.append(h._root)
         return [x for x in nodes if x._tok is not None]
-    return [h._a[i] for i in dary_checks.stretch(h, touched, subject)]
+    return [h._a[i] for i in dary_rules.stretch(h, touched, subject)]
 
 
 def _corrupt(data: Any, h: Any, x: Any) -> str:

@@ -22,6 +22,7 @@ import heapkit
 from heapkit._core import Owner
 from heapkit.contracts import Report
 from heapkit.kinds.binomial import BinomialHeap
+from heapkit.kinds.binomial import rules as binomial_rules
 from tests import fuses
 
 
@@ -136,7 +137,7 @@ def test_push_costs_at_most_2_amortized_and_links_follow_the_binary_counter() ->
 
 
 def test_every_operation_keeps_its_amortized_bound_and_passes_local_checks() -> None:
-    # The bounds derived in heapkit/kinds/binomial.py from Vuillemin 1978; the
+    # The bounds derived in heapkit/kinds/binomial/heap.py from Vuillemin 1978; the
     # local survey (checked mode) must find nothing on a correct heap.
     rnd = random.Random(11)
     h, handles = filled(700, seed=11)
@@ -395,7 +396,7 @@ class Fuse:
 
 
 def _deepest(h: Any) -> Any:
-    return max(h, key=lambda x: len(h._path_of(x)) * 10**6 + x.value)
+    return max(h, key=lambda x: len(binomial_rules.path_of(h, x)) * 10**6 + x.value)
 
 
 OPS: dict[str, Callable[[Any, Any], None]] = {

@@ -12,8 +12,8 @@ from typing import Any
 import pytest
 
 import heapkit
-from heapkit.kinds._hollow_dag import Node, children
 from heapkit.kinds.hollow import HollowHeap
+from heapkit.kinds.hollow.dag import Node, children
 
 
 def _fib(i: int) -> int:

@@ -17,8 +17,8 @@ from typing import Any
 import pytest
 
 import heapkit
-from heapkit.kinds._lazy_entries import _Handle, _Ord
 from heapkit.kinds.lazy import LazyHeap
+from heapkit.kinds.lazy.entries import _Handle, _Ord
 from tests.fuses import MODES, Boom, Poison
 
 
@@ -154,7 +154,7 @@ def test_a_failing_comparison_leaves_every_operation_as_it_was(mode: str) -> Non
 
 def test_the_repairs_undo_heapq_exactly() -> None:
     # heappush/heappop on a plain list with a raising key, repaired, equals the list before.
-    from heapkit.kinds._lazy_entries import _unpop, _unpush
+    from heapkit.kinds.lazy.entries import _unpop, _unpush
 
     for budget in range(12):
         base = [Bomb(v) for v in range(31)]

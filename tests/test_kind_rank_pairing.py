@@ -25,7 +25,8 @@ import pytest
 import heapkit
 from heapkit._core import Owner
 from heapkit.contracts import Report
-from heapkit.kinds.rank_pairing import RankPairingHeap, _Node
+from heapkit.kinds.rank_pairing import RankPairingHeap
+from heapkit.kinds.rank_pairing.heap import _Node
 from tests.fuses import MODES, Boom, Fuse, assert_unchanged
 
 PHI = (1 + math.sqrt(5)) / 2  # golden ratio, from math.sqrt

@@ -42,7 +42,7 @@ from heapkit._core import HeapBase
 from heapkit.contracts.report import Report
 from heapkit.errors import InvariantError
 
-__all__ = ["MUTATED_HINT", "Entry", "HistoryError", "failure", "kind_class", "replay"]
+__all__ = ["MUTATED_HINT", "Entry", "HistoryError", "failure", "kind_class", "run"]
 
 Entry = tuple[Any, ...]
 
@@ -76,23 +76,18 @@ def _opening(history: list[Entry], known: set[int]) -> tuple[list[Entry], list[t
     return tail, first
 
 
-def replay(
-    history: list[Entry], target: Target, *, start: tuple[tuple[Any, int], ...] = (), every: int = 1
+def run(
+    history: list[Entry], target: Target, check: Callable[..., Any], *,
+    start: tuple[tuple[Any, int], ...] = (), every: int = 1,
 ) -> Any:
-    """Run ``history`` on a fresh heap from ``target``, checked; return the heap.
+    """Run ``history`` on a fresh heap from ``target`` put in checked mode by ``check``
+    (``heapkit.checked``, handed in by its caller so this module never imports the
+    mode); return the heap.  ``heapkit.contracts.replaying.replay`` documents it.
 
-    ``target``: a name in ``heapkit.KINDS``, a heap class or a factory;
-    ``start``: ``(key, label)`` entries to push before the history.  The
-    heap is checked in full after every ``every``-th operation, so the first
-    broken rule raises :class:`InvariantError` (with its own history).
-    O(length of history * n).
-
-    >>> hist = [("push", 3, 0), ("push", 1, 1), ("decrease_key", 0, 3, 0), ("pop", 0, 0)]
-    >>> h = replay(hist, "binary")
-    >>> [(x.key, x.value) for x in h]
-    [(1, 1)]
+    >>> from heapkit import checked
+    >>> len(run([("push", 3, 0), ("push", 1, 1), ("pop", 1, 1)], "binary", checked))
+    1
     """
-    from heapkit.contracts.mode import checked
     from heapkit.kinds import KINDS
 
     if isinstance(target, str):
@@ -105,7 +100,7 @@ def replay(
     tail, first = _opening(history, set(handles))
     for key, lab in first:
         handles[lab] = heap.push(key, lab)
-    checked(heap, every=every, full_every=1)
+    check(heap, every=every, full_every=1)
     for e in tail:
         op = e[0]
         if op == "push":
@@ -170,6 +165,8 @@ class HistoryError(InvariantError):
         self.start = start
         self.record: list[Entry] = history if record is None else record
         self._factory = factory
+        #: The checked-mode switch the replay runs under (``failure`` hands it in).
+        self._check: Callable[..., Any] | None = None
         #: True when the broken rule is one that heapkit's own kind keeps: a key changed in place.
         self.likely_mutated = False
 
@@ -181,7 +178,9 @@ class HistoryError(InvariantError):
         changed in place, that is expected and a ``RuntimeWarning`` says so.
         O(length of the record * n).
         """
-        heap = replay(self.record, self._factory if kind is None else kind, start=self.start)
+        if self._check is None:
+            raise RuntimeError(f"replay: {type(self).__name__!r} was not raised by checked mode (no checker)")
+        heap = run(self.record, self._factory if kind is None else kind, self._check, start=self.start)
         if self.likely_mutated:
             warnings.warn(
                 "the replay ran clean: the failure was likely caused by a key changed in place, "
@@ -212,8 +211,9 @@ MUTATED_HINT = (
 )
 
 
-def failure(h: Any, st: Any, report: Report) -> HistoryError:
-    """The :class:`HistoryError` for checked heap ``h`` (state ``st``) whose check found ``report``."""
+def failure(h: Any, st: Any, report: Report, check: Callable[..., Any]) -> HistoryError:
+    """The :class:`HistoryError` for checked heap ``h`` (state ``st``) whose check found
+    ``report``; ``check`` (``heapkit.checked``) is what its ``replay()`` runs under."""
     cls, stable, opts = kind_class(h), h._stable, h._options()
     text = str(report.error(h, f" after {st.history[-1][0] if st.history else 'enabling'}"))
     stock = cls.__module__.startswith("heapkit.kinds")  # not a user's subclass
@@ -225,4 +225,5 @@ def failure(h: Any, st: Any, report: Report) -> HistoryError:
         lambda: cls(stable=stable, **opts), st.base, list(st.record),
     )
     err.likely_mutated = mutated
+    err._check = check
     return err

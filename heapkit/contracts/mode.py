@@ -299,7 +299,7 @@ def _verify(h: Any, st: _State, subject: Any, also: Any, popped: Any) -> None:
     if also is not None and not report.problems:
         report.run(also._survey)
     if report.problems:
-        raise failure(h, st, report)
+        raise failure(h, st, report, checked)
 
 
 def _popped_minimum(report: Report, h: Any, popped: Any) -> None:
@@ -333,7 +333,7 @@ def _abort(h: Any, st: _State, exc: BaseException) -> None:
         st.busy = None
         st.ver = h._ver
     if report.problems:
-        raise failure(h, st, report) from exc
+        raise failure(h, st, report, checked) from exc
 
 
 class _Checking:
@@ -498,6 +498,6 @@ def _inner_meld(h: Any, other: Any) -> None:
     finally:
         untally(c0)
     if report.problems:
-        raise failure(h, st, report)
+        raise failure(h, st, report, checked)
     st.touched = h._touched("meld", other) if _valid(h, "meld", other) else _NOTHING
     st.subject = other

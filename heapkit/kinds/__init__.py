@@ -1,4 +1,5 @@
-"""One module per heap structure; ``KINDS`` maps each kind's name to its class."""
+"""One package per heap structure (``heapkit/kinds/<kind>/``: ``heap.py``, ``rules.py``,
+``cost.py``); ``KINDS`` maps each kind's name to its class."""
 
 from __future__ import annotations
 

@@ -52,7 +52,7 @@ from heapq import heappop, heappush
 from typing import Any, ClassVar, Generic, TypeVar
 
 from heapkit._core import HeapBase, empty_error, nan_error, upward_error
-from heapkit.kinds.dary import _Slot  # the array-position handle, shared with the d-ary heap
+from heapkit.kinds.dary.heap import _Slot  # the array-position handle, shared with the d-ary heap
 from heapkit.kinds.weak import cost as _cost
 from heapkit.kinds.weak import rules as _rules
 from heapkit.protocol import Handle
@@ -265,7 +265,7 @@ class WeakHeap(HeapBase[K, V], Generic[K, V]):
         if key != key:
             raise nan_error("push", key)
         w = self._wrap
-        # __new__ and slot stores instead of __init__, as in dary.py (measured there).
+        # __new__ and slot stores instead of __init__, as in dary/heap.py (measured there).
         x = _new(_Slot)
         x._key = key
         x._k = key if w is None else w(key, None)
