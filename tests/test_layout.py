@@ -120,14 +120,7 @@ def test_history_error_replays_without_the_history_importing_the_mode() -> None:
     assert [again.pop()[0] for _ in range(len(again))] == sorted([1, 2, 0])
 
 
-# weak: its loading check is missing on the integration branch (WeakHeap inherits the
-# "no layout" default of _core), so its copies fail there already; not a layout matter.
-_WEAK_LOADS = pytest.mark.xfail(reason="WeakHeap has no _layout_problem yet", raises=ValueError)
-
-
-@pytest.mark.parametrize(
-    "kind", [pytest.param(k, marks=_WEAK_LOADS) if k == "weak" else k for k in sorted(KINDS)]
-)
+@pytest.mark.parametrize("kind", sorted(KINDS))
 def test_copies_and_pickles_name_the_moved_classes(kind: str) -> None:
     h = heapkit.new(kind, [(3, "c"), (1, "a"), (2, "b")])
     data = pickle.dumps(h)
