@@ -139,14 +139,36 @@ def test_comparisons_within_1_6_log2_factorial(kind: str, request: pytest.Fixtur
         pytest.skip(f"{kind} cannot take these keys")
     if kind in OVER_TARGET:
         request.applymarker(pytest.mark.xfail(strict=True, reason=OVER_TARGET[kind]))
-    if getattr(heapkit.KINDS[kind], "DEFAULT_ARITY", 2) > 2:
-        # A d-ary heap finds the smallest of d children with d - 1 comparisons:
-        # (d - 1) / log2(d) = 1.5 comparisons per binary level for d = 4, so about
-        # 1.5 log2(n!) + O(n), over 1.6 log2(n!) until n is in the millions.
-        request.applymarker(pytest.mark.xfail(strict=True, reason="4-ary: 1.5 log2(n!) + O(n)"))
     # Source: log2(n!) = lgamma(n + 1) / ln 2, the comparison-sorting lower bound
     # (Knuth, TAOCP vol. 3, 5.3.1); the 1.6 margin is the issue's target.
     assert counts[kind] <= 1.6 * log2_factorial(N)
+
+
+#: Kinds above the issue's 1.5 log2(n!) target for every kind (strict xfail, as above).
+OVER_1_5 = {"fibonacci": "measured 1.557 log2(n!) at n = 2000, 1.531 at n = 1e5"}
+
+
+@pytest.mark.parametrize("kind", NAMES)
+def test_comparisons_within_1_5_log2_factorial(kind: str, request: pytest.FixtureRequest) -> None:
+    counts = _counts()
+    if kind not in counts:
+        pytest.skip(f"{kind} cannot take these keys")
+    if kind in OVER_1_5:
+        request.applymarker(pytest.mark.xfail(strict=True, reason=OVER_1_5[kind]))
+    # Source: log2(n!) as above; 1.5 is the issue's target for every kind (dary and
+    # rank-pairing measured 1.63 and 2.18 at n = 1e5 before issue 15).
+    assert counts[kind] <= 1.5 * log2_factorial(N)
+
+
+def test_dary_picks_the_least_child_cheaper_than_d_minus_1() -> None:
+    # Without remembered verdicts a 4-ary pop needs d - 1 = 3 comparisons a level,
+    # (d - 1) / log2(d) = 1.5 per binary level (common practice: finding the least of
+    # d keys takes d - 1 comparisons), so pops alone cost about 1.5 log2(n!).
+    n = 20_000
+    got = comparisons({"dary": heapkit.DaryHeap}, n)
+    # Source: log2(n!) (Knuth, TAOCP vol. 3, 5.3.1); heapq counted on the same keys.
+    assert got["dary"] <= 1.25 * log2_factorial(n)
+    assert got["dary"] <= 1.01 * got["heapq"]
 
 
 def test_bytes_per_entry_counts_the_queue() -> None:
