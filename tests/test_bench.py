@@ -85,6 +85,14 @@ def test_tuple_idiom_matches_the_docs_idiom(name: str) -> None:
     assert w.same(w.tuples(_data(name)), _baseline(name))
 
 
+def test_costly_keys_order_as_their_tuples() -> None:
+    pairs = _data("sort-costly")
+    keys = [k for k, _ in pairs]
+    # Source: Python's own tuple ordering (sorted() on the raw tuples of strings).
+    assert [k.parts for k in sorted(keys)] == sorted(k.parts for k in keys)
+    assert len(set(keys)) == len(keys)  # distinct: pop orders are unique
+
+
 def test_tuple_idiom_covers_what_users_time() -> None:
     # The plain tuple idiom runs every Dijkstra workload (the comparison users make,
     # common practice) and none that needs cancelling or raising a key.

@@ -25,7 +25,7 @@ from typing import Any
 from heapkit.bench import idiom, tuples
 from heapkit.bench.graphs import Adjacency, grid_graph, sparse_graph
 
-__all__ = ["WORKLOADS", "Workload", "admits", "dijkstra", "hold", "meld", "scheduler", "sort"]
+__all__ = ["WORKLOADS", "ShelfKey", "Workload", "admits", "dijkstra", "hold", "meld", "scheduler", "sort"]
 
 Factory = Callable[[], Any]
 
@@ -213,6 +213,46 @@ def _sort_data(shape: str) -> Callable[[float], list[tuple[int, int]]]:
     return make
 
 
+class ShelfKey:
+    """A key whose ``<`` does real work: a Python method comparing tuples of strings
+    that share long prefixes (site, aisle, bin, lot), as a user-defined key might.
+
+    >>> ShelfKey(("north", "aisle-07")) < ShelfKey(("north", "aisle-10"))
+    True
+    """
+
+    __slots__ = ("parts",)
+
+    def __init__(self, parts: tuple[str, ...]) -> None:
+        self.parts = parts
+
+    def __lt__(self, other: ShelfKey) -> bool:
+        return self.parts < other.parts
+
+    def __eq__(self, other: object) -> bool:
+        return isinstance(other, ShelfKey) and self.parts == other.parts
+
+    def __hash__(self) -> int:
+        return hash(self.parts)
+
+    def __repr__(self) -> str:
+        return f"ShelfKey({self.parts!r})"
+
+
+def _costly_data(scale: float) -> list[tuple[ShelfKey, int]]:
+    """Distinct shelf labels of an invented warehouse, in random order."""
+    n = _scaled(50_000, scale, 100)
+    rng = random.Random(19)
+    sites = ("north-depot", "south-depot", "east-depot")
+    seen: set[tuple[str, ...]] = set()
+    while len(seen) < n:
+        seen.add((rng.choice(sites), f"aisle-{rng.randrange(40):02d}", f"bin-{rng.randrange(400):03d}",
+                  f"lot-{rng.randrange(10**6):06d}"))
+    labels = sorted(seen)
+    rng.shuffle(labels)
+    return [(ShelfKey(t), i) for i, t in enumerate(labels)]
+
+
 # Proportions of the dispatcher mix (invented, see scheduler_data's docstring).
 MIX = {"push": 0.40, "pop": 0.30, "decrease_key": 0.20, "remove": 0.10}
 
@@ -351,6 +391,10 @@ WORKLOADS: dict[str, Workload] = {
         _dijkstra_row("dijkstra-int", "Dijkstra, random graph n = 1e5, m = 5e5, int weights 1..100",
                       _sparse(True), True),
         *(_sort_row(s) for s in ("random", "sorted", "reversed", "equal")),
+        Workload(
+            "sort-costly", "n pushes then n pops, keys with a Python < on tuples of strings (n = 5e4)",
+            _costly_data, run=sort, baseline=idiom.sort, same=_same_pops, tuples=tuples.sort,
+        ),
         Workload(
             "scheduler", "dispatcher: 40% push, 30% pop, 20% decrease_key, 10% remove (5e4 + 2e5 ops)",
             scheduler_data, run=lambda f, d: scheduler(f, *d), baseline=lambda d: idiom.scheduler(*d),
