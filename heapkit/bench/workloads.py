@@ -214,41 +214,51 @@ def _sort_data(shape: str) -> Callable[[float], list[tuple[int, int]]]:
 
 
 class ShelfKey:
-    """A key whose ``<`` does real work: a Python method comparing tuples of strings
-    that share long prefixes (site, aisle, bin, lot), as a user-defined key might.
+    """A key whose ``<`` does real work, as user keys often do: a shelf label
+    compared case-insensitively field by field (casefold, split on ``/``, compare
+    the lists of strings) on every comparison, about 1 us each.
 
-    >>> ShelfKey(("north", "aisle-07")) < ShelfKey(("north", "aisle-10"))
+    >>> ShelfKey("North/Aisle-07") < ShelfKey("north/aisle-10")
     True
     """
 
-    __slots__ = ("parts",)
+    __slots__ = ("label",)
 
-    def __init__(self, parts: tuple[str, ...]) -> None:
-        self.parts = parts
+    def __init__(self, label: str) -> None:
+        self.label = label
+
+    def fields(self) -> list[str]:
+        """The label's fields, case-folded: what ``<`` compares.  O(len(label)).
+
+        >>> ShelfKey("North/Bin-3").fields()
+        ['north', 'bin-3']
+        """
+        return self.label.casefold().split("/")
 
     def __lt__(self, other: ShelfKey) -> bool:
-        return self.parts < other.parts
+        return self.label.casefold().split("/") < other.label.casefold().split("/")
 
     def __eq__(self, other: object) -> bool:
-        return isinstance(other, ShelfKey) and self.parts == other.parts
+        return isinstance(other, ShelfKey) and self.fields() == other.fields()
 
     def __hash__(self) -> int:
-        return hash(self.parts)
+        return hash(tuple(self.fields()))
 
     def __repr__(self) -> str:
-        return f"ShelfKey({self.parts!r})"
+        return f"ShelfKey({self.label!r})"
 
 
 def _costly_data(scale: float) -> list[tuple[ShelfKey, int]]:
-    """Distinct shelf labels of an invented warehouse, in random order."""
+    """Distinct shelf labels of an invented warehouse (mixed case), in random order."""
     n = _scaled(50_000, scale, 100)
     rng = random.Random(19)
-    sites = ("north-depot", "south-depot", "east-depot")
-    seen: set[tuple[str, ...]] = set()
+    sites = ("North-Depot", "south-depot", "EAST-DEPOT")
+    seen: dict[tuple[str, ...], str] = {}
     while len(seen) < n:
-        seen.add((rng.choice(sites), f"aisle-{rng.randrange(40):02d}", f"bin-{rng.randrange(400):03d}",
-                  f"lot-{rng.randrange(10**6):06d}"))
-    labels = sorted(seen)
+        label = (f"{rng.choice(sites)}/{rng.choice(('Aisle', 'aisle'))}-{rng.randrange(40):02d}/"
+                 f"bin-{rng.randrange(400):03d}/Lot-{rng.randrange(10**6):06d}")
+        seen.setdefault(tuple(label.casefold().split("/")), label)
+    labels = [seen[f] for f in sorted(seen)]
     rng.shuffle(labels)
     return [(ShelfKey(t), i) for i, t in enumerate(labels)]
 
@@ -392,7 +402,7 @@ WORKLOADS: dict[str, Workload] = {
                       _sparse(True), True),
         *(_sort_row(s) for s in ("random", "sorted", "reversed", "equal")),
         Workload(
-            "sort-costly", "n pushes then n pops, keys with a Python < on tuples of strings (n = 5e4)",
+            "sort-costly", "n pushes then n pops, keys whose < folds and splits labels (n = 5e4)",
             _costly_data, run=sort, baseline=idiom.sort, same=_same_pops, tuples=tuples.sort,
         ),
         Workload(
