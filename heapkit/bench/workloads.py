@@ -216,7 +216,9 @@ def _sort_data(shape: str) -> Callable[[float], list[tuple[int, int]]]:
 class ShelfKey:
     """A key whose ``<`` does real work, as user keys often do: a shelf label
     compared case-insensitively field by field (casefold, split on ``/``, compare
-    the lists of strings) on every comparison, about 1 us each.
+    the lists of strings) on every comparison, about 1 us each.  No ``__eq__``:
+    equality is identity (labels are distinct), so a tuple or list entry holding
+    the key pays for its ``<`` only.
 
     >>> ShelfKey("North/Aisle-07") < ShelfKey("north/aisle-10")
     True
@@ -237,12 +239,6 @@ class ShelfKey:
 
     def __lt__(self, other: ShelfKey) -> bool:
         return self.label.casefold().split("/") < other.label.casefold().split("/")
-
-    def __eq__(self, other: object) -> bool:
-        return isinstance(other, ShelfKey) and self.fields() == other.fields()
-
-    def __hash__(self) -> int:
-        return hash(tuple(self.fields()))
 
     def __repr__(self) -> str:
         return f"ShelfKey({self.label!r})"

@@ -118,7 +118,7 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
 
     _a: list[_Slot[K, V]]
     _d: int
-    _w: bytearray
+    _w: list[int]
 
     def __init__(
         self, pairs: Iterable[tuple[K, V]] = (), *, stable: bool = False, arity: int | None = None
@@ -129,7 +129,7 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
         self._setup(stable)
         self._a = []
         self._d = d
-        self._w = bytearray()
+        self._w = []
         self._finish_init(pairs)
 
     def _options(self) -> dict[str, object]:
@@ -263,13 +263,12 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
         a.append(x)
         if d == 4 and j:
             # Arity 4: forget the pair verdicts of the positions that change (w
-            # holds at least n // 2 entries, so the new pair is at most one past it).
+            # holds at least n // 2 entries, so a new pair is at most one past it).
             pv = self._w
-            p = (j - 1) >> 1
-            if p < len(pv):
-                pv[p] = 0
-            else:
-                pv.append(0)
+            try:
+                pv[(j - 1) >> 1] = 0
+            except IndexError:  # a new pair past the end: double (3.11's try costs nothing)
+                pv.extend([0] * (len(pv) + 8))
             while j != t:
                 p = (j - 1) >> 2
                 q = a[p]
@@ -444,7 +443,7 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
 
     def _reset(self) -> None:
         self._a = []
-        self._w = bytearray()
+        self._w = []
 
     # Forget the pair verdicts of the positions from j up to its ancestor t (arity 4).
     def _forget(self, j: int, t: int) -> None:
@@ -463,7 +462,7 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
 
     def _import(self, handles: list[Any], layout: None) -> None:
         self._a = handles
-        self._w = bytearray(len(handles) >> 1)
+        self._w = [0] * (len(handles) >> 1)
         for i, x in enumerate(handles):
             x._i = i
 

@@ -50,7 +50,7 @@ def heapify(heap: Any) -> None:
     """
     a = heap._a
     m = len(a)
-    heap._w = bytearray(m >> 1)
+    heap._w = [0] * (m >> 1)
     for s in range((m - 2) // heap._d, -1, -1):
         x = a[s]
         t = heap._descend(s, x._k, m)
@@ -72,7 +72,7 @@ def meld_from(heap: Any, other: Any) -> None:
     tok = heap._tok
     if heap._pushes(n, m):
         # A few entries into many: push them, undoing in reverse on failure.
-        heap._w.extend(bytes(max(0, (n + m) // 2 - len(heap._w))))
+        heap._w.extend([0] * max(0, (n + m) // 2 - len(heap._w)))
         done = 0
         try:
             for x in b:
@@ -96,7 +96,7 @@ def meld_from(heap: Any, other: Any) -> None:
             heapify(heap)
         except BaseException:
             heap._a = a
-            heap._w = bytearray(n >> 1)
+            heap._w = [0] * (n >> 1)
             for i, x in enumerate(a):
                 x._i = i
             for i, x in enumerate(b):
