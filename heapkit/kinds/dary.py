@@ -314,7 +314,17 @@ class DaryHeap(DaryAudit, HeapBase[K, V], Generic[K, V]):
             last = a[m]
             t = self._descend(0, last._k, m)
             a.pop()
-            self._raise_path(0, t, last)
+            # _raise_path(0, t, last) written inline: one call fewer a pop.
+            d = self._d
+            carry = a[t]
+            a[t] = last
+            last._i = t
+            while t:
+                t = (t - 1) // d
+                q = a[t]
+                a[t] = carry
+                carry._i = t
+                carry = q
         else:
             a.pop()
         self._n = m
