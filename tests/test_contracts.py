@@ -65,6 +65,21 @@ def _dary_ownership() -> tuple[Any, str, Any, list[str]]:
     return h, "ownership", x, ["root", "child 1"]
 
 
+def _dary_pair_verdicts() -> tuple[Any, str, Any, list[str]]:
+    # Keys 0..20 pushed in order never climb; the pop's descent from the root
+    # compares the pair at positions 3, 4 (keys 3 < 4: left wins), keeps that
+    # verdict (the pair of the winner, position 1, is forgotten), and flipping it
+    # makes it wrong.  Position 3 is the root's child 2 (4-ary: (3 - 1) % 4).
+    h = DaryHeap(arity=4)
+    for k in range(21):
+        h.push(k, f"v{k}")
+    h.pop()
+    if h._w[1] != 1:
+        raise AssertionError(f"expected the kept verdict 1 for positions 3, 4, got {h._w[1]}")
+    h._w[1] = 2
+    return h, "pair-verdicts", h._a[3], ["root", "child 2"]
+
+
 def _pairing_heap_order() -> tuple[Any, str, Any, list[str]]:
     h, _, three = _pairing_chain()
     three._key = three._k = 0
@@ -94,6 +109,7 @@ CORRUPTIONS: dict[tuple[type, str], Callable[[], tuple[Any, str, Any, list[str]]
     (DaryHeap, "index"): _dary_index,
     (DaryHeap, "size"): _dary_size,
     (DaryHeap, "ownership"): _dary_ownership,
+    (DaryHeap, "pair-verdicts"): _dary_pair_verdicts,
     (PairingHeap, "heap-order"): _pairing_heap_order,
     (PairingHeap, "links"): _pairing_links,
     (PairingHeap, "size"): _pairing_size,

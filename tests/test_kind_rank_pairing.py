@@ -233,7 +233,9 @@ def _corrupt(rule: str, h: Any, hs: list[Any]) -> Any:
         return x._left
     if rule == "min-first":
         m = h._first
-        h._first = next(r for r in roots if m._k < r._k)
+        # The least other root: m is then the one root smaller than the first (the
+        # report lists a bounded number of problems, so a larger pick could hide m).
+        h._first = min((r for r in roots if r is not m), key=lambda r: r._k)
         return m
     if rule == "size":
         h._n += 1

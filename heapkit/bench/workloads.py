@@ -25,7 +25,7 @@ from typing import Any
 from heapkit.bench import idiom, tuples
 from heapkit.bench.graphs import Adjacency, grid_graph, sparse_graph
 
-__all__ = ["WORKLOADS", "Workload", "admits", "dijkstra", "hold", "meld", "scheduler", "sort"]
+__all__ = ["WORKLOADS", "ShelfKey", "Workload", "admits", "dijkstra", "hold", "meld", "scheduler", "sort"]
 
 Factory = Callable[[], Any]
 
@@ -213,6 +213,52 @@ def _sort_data(shape: str) -> Callable[[float], list[tuple[int, int]]]:
     return make
 
 
+class ShelfKey:
+    """A key whose ``<`` does real work, as user keys often do: a shelf label
+    compared case-insensitively field by field (casefold, split on ``/``, compare
+    the lists of strings) on every comparison, about 1 us each.  No ``__eq__``:
+    equality is identity (labels are distinct), so a tuple or list entry holding
+    the key pays for its ``<`` only.
+
+    >>> ShelfKey("North/Aisle-07") < ShelfKey("north/aisle-10")
+    True
+    """
+
+    __slots__ = ("label",)
+
+    def __init__(self, label: str) -> None:
+        self.label = label
+
+    def fields(self) -> list[str]:
+        """The label's fields, case-folded: what ``<`` compares.  O(len(label)).
+
+        >>> ShelfKey("North/Bin-3").fields()
+        ['north', 'bin-3']
+        """
+        return self.label.casefold().split("/")
+
+    def __lt__(self, other: ShelfKey) -> bool:
+        return self.label.casefold().split("/") < other.label.casefold().split("/")
+
+    def __repr__(self) -> str:
+        return f"ShelfKey({self.label!r})"
+
+
+def _costly_data(scale: float) -> list[tuple[ShelfKey, int]]:
+    """Distinct shelf labels of an invented warehouse (mixed case), in random order."""
+    n = _scaled(50_000, scale, 100)
+    rng = random.Random(19)
+    sites = ("North-Depot", "south-depot", "EAST-DEPOT")
+    seen: dict[tuple[str, ...], str] = {}
+    while len(seen) < n:
+        label = (f"{rng.choice(sites)}/{rng.choice(('Aisle', 'aisle'))}-{rng.randrange(40):02d}/"
+                 f"bin-{rng.randrange(400):03d}/Lot-{rng.randrange(10**6):06d}")
+        seen.setdefault(tuple(label.casefold().split("/")), label)
+    labels = [seen[f] for f in sorted(seen)]
+    rng.shuffle(labels)
+    return [(ShelfKey(t), i) for i, t in enumerate(labels)]
+
+
 # Proportions of the dispatcher mix (invented, see scheduler_data's docstring).
 MIX = {"push": 0.40, "pop": 0.30, "decrease_key": 0.20, "remove": 0.10}
 
@@ -351,6 +397,10 @@ WORKLOADS: dict[str, Workload] = {
         _dijkstra_row("dijkstra-int", "Dijkstra, random graph n = 1e5, m = 5e5, int weights 1..100",
                       _sparse(True), True),
         *(_sort_row(s) for s in ("random", "sorted", "reversed", "equal")),
+        Workload(
+            "sort-costly", "n pushes then n pops, keys whose < folds and splits labels (n = 5e4)",
+            _costly_data, run=sort, baseline=idiom.sort, same=_same_pops, tuples=tuples.sort,
+        ),
         Workload(
             "scheduler", "dispatcher: 40% push, 30% pop, 20% decrease_key, 10% remove (5e4 + 2e5 ops)",
             scheduler_data, run=lambda f, d: scheduler(f, *d), baseline=lambda d: idiom.scheduler(*d),

@@ -1,7 +1,17 @@
 """What the auditor asks of the d-ary heap: actual costs in levels an entry moves + 1.
 
-A worst-case kind: ``Phi = 0``.  The bounds, with their derivation, are in the
-docstring of ``heap.py``.
+A worst-case kind: ``Phi = 0``, so amortized = actual.  Cost unit: the levels
+the moving entry travels + 1 (the pushed, changed or re-seated last entry).
+Bounds, with ``L(s)`` the number of levels of a complete d-ary tree of ``s``
+entries (``L(s) = depth(s - 1) + 1``): push ``L(n + 1)``, pop, remove,
+decrease_key, change_key ``L(n)``: an entry moves at most between the root and
+the deepest level.  Meld: the cost is half the total level displacement of the
+entries it moves + 1; Floyd's heapify moves entries at most the sum of the
+heights, < N levels (O(N) in CLRS, 3rd ed., 6.3; "< N" recalled from memory:
+N - popcount(N) for d = 2, less for larger d), and the pushes branch is
+taken only when ``m * bitlength(N) < N``, so the bound is ``N + 1`` for the
+combined size N.  The ``d`` factor of pop shows in the comparisons column
+(``d - 1`` a level down, bottom-up), not in this unit.
 """
 
 from __future__ import annotations

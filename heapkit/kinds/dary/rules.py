@@ -2,13 +2,14 @@
 checked mode and ``to_dot`` ask (kept beside ``heap.py``).
 
 The full survey (``survey``) visits every position once and checks
-``index``, ``ownership`` and ``heap-order`` against the parent: O(n).
+``index``, ``ownership`` and ``heap-order`` against the parent, and at arity 4
+the kept ``pair-verdicts`` of each sibling pair: O(n).
 
 Incremental checking: an operation (other than meld) moves entries along one
 path of the implicit tree, between the positions it starts from and the
 positions its moving entries land on.  The local survey re-checks that stretch
 of the path and the parent just above it, each position with its children
-(``index``, ``ownership``, ``heap-order``): O(d * levels moved), the cost of
+(``index``, ``ownership``, ``heap-order``, ``pair-verdicts``): O(d * levels moved), the cost of
 the operation itself.
 
 * push: from the new last position (``len`` before the push) to where the
@@ -24,13 +25,14 @@ from __future__ import annotations
 from collections.abc import Iterator
 from typing import Any
 
-__all__ = ["RULES", "dot_edges", "path", "stretch", "survey", "survey_local", "touched"]
+__all__ = ["RULES", "dot_edges", "path", "stretch", "survey", "survey_local", "touched", "verdicts"]
 
 RULES: dict[str, str] = {
     "heap-order": "no entry is smaller than its parent a[(i - 1) // d]",
     "index": "every handle's position is where it stands in the array",
     "size": "the array holds len(heap) entries",
     "ownership": "every handle's owner token resolves to this heap's",
+    "pair-verdicts": "arity 4: every kept verdict on a sibling pair agrees with their keys",
 }
 
 
@@ -109,6 +111,8 @@ def _at(heap: Any, report: Any, a: Any, d: int, i: int) -> None:
         report.fail("ownership", x, path(heap, i), "its owner token is not this heap's")
     xk = x._k
     lo = d * i + 1
+    if d == 4:
+        verdicts(heap, report, lo, lo + 4)
     for c in range(lo, min(lo + d, len(a))):
         y = a[c]
         if y._k < xk:
@@ -123,6 +127,17 @@ def dot_edges(heap: Any) -> Iterator[tuple[Any, Any, str]]:
     d = heap._d
     for i, x in enumerate(a):
         yield (a[(i - 1) // d] if i else None), x, f"[{i}]"
+
+
+def verdicts(heap: Any, report: Any, lo: int, hi: int) -> None:
+    """Arity 4: the kept verdict of every sibling pair at odd ``lo <= c < hi`` (both
+    in the array) agrees with their keys (``pair-verdicts``)."""
+    a = heap._a
+    w = heap._w
+    for c in range(lo, min(hi, len(a) - 1), 2):
+        v = w[c >> 1] if c >> 1 < len(w) else 0
+        if v and (2 if a[c + 1]._k < a[c]._k else 1) != v:
+            report.fail("pair-verdicts", a[c], path(heap, c), f"kept verdict {v} is wrong")
 
 
 def path(heap: Any, i: int) -> list[str]:
@@ -154,6 +169,8 @@ def survey(heap: Any, report: Any) -> dict[str, Any]:
                     "heap-order", x, path(heap, i),
                     f"key {x._key!r} is smaller than its parent's {p._key!r}",
                 )
+    if d == 4:
+        verdicts(heap, report, 1, len(a))
     if len(a) != heap._n:
         report.fail("size", None, [], f"the array holds {len(a)} entries but len is {heap._n}")
     n = len(a)
