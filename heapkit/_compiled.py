@@ -9,6 +9,7 @@ from __future__ import annotations
 
 import importlib
 import importlib.machinery
+import importlib.util
 import os
 
 __all__ = ["MODULES", "StaleBuildError", "running_compiled", "stale_extensions"]
@@ -26,8 +27,8 @@ class StaleBuildError(ImportError):
     """A compiled module in the source tree is older than its ``.py`` (it would shadow the edit)."""
 
 
-def _is_extension(mod: object) -> bool:
-    path = getattr(mod, "__file__", None) or ""
+def _is_extension(spec: importlib.machinery.ModuleSpec | None) -> bool:
+    path = (spec.origin if spec is not None else None) or ""
     return path.endswith(_SUFFIXES)
 
 
@@ -39,7 +40,9 @@ def running_compiled() -> bool:
     """
     if not MODULES:
         return False
-    return all(_is_extension(importlib.import_module(name)) for name in MODULES)
+    # find_spec says where each module would load from without running it (importing
+    # them all here pulled heapkit.bench.graphs, and with it `random`, into every import).
+    return all(_is_extension(importlib.util.find_spec(name)) for name in MODULES)
 
 
 def stale_extensions(package_dir: str) -> list[str]:
