@@ -96,7 +96,10 @@ def _caught(broken: type, **flags: Any) -> str:
 def test_broken_queues_are_caught_with_a_short_sequence(broken: type, flags: dict[str, Any]) -> None:
     message = _caught(broken, **flags)
     assert "h = factory()" in message
-    assert _steps(message) <= 12, message
+    # 12 lines held until the kit preferred small keys: with every key 0, WrongPopAtSeven's
+    # second-smallest pop is a tie, visible only through the peek/pop rule, and the derandomised
+    # ci profile shrinks that to 13 lines (9 pushes, 2 pops, peek, pop); 14 keeps the margin.
+    assert _steps(message) <= 14, message
 
 
 def test_message_lines_replay_the_failure() -> None:
