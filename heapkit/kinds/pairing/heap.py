@@ -37,6 +37,7 @@ from collections.abc import Callable, Iterable, Iterator
 from typing import Any, ClassVar, Generic, TypeVar
 
 from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, upward_error
+from heapkit._face import HeapFace
 from heapkit.kinds.pairing import cost as _cost
 from heapkit.kinds.pairing import rules as _rules
 from heapkit.kinds.pairing.links import _adopt, _cut, _hang, _link, _pair_children
@@ -47,10 +48,7 @@ __all__ = ["PairingHeap"]
 K = TypeVar("K")
 V = TypeVar("V")
 
-_new = object.__new__
-
-
-class _Node(HandleBase[K, V]):
+class _Node(HandleBase, Generic[K, V]):
     """Handle and tree node: ``_child`` (leftmost), ``_next`` (right sibling),
     ``_prev`` (left sibling, or the parent for a leftmost child)."""
 
@@ -66,7 +64,11 @@ class _Node(HandleBase[K, V]):
         self._prev: Any = None
 
 
-class PairingHeap(HeapBase[K, V], Generic[K, V]):
+# The node class's __new__: object's when pure; a compiled HandleBase refuses object.__new__.
+_new = _Node.__new__
+
+
+class PairingHeap(HeapFace[K, V], HeapBase):
     """Two-pass pairing heap with handles.
 
     >>> h = PairingHeap([(5, 'e'), (2, 'b')])
@@ -76,7 +78,7 @@ class PairingHeap(HeapBase[K, V], Generic[K, V]):
     ((1, 'i'), (2, 'b'), 1)
     """
 
-    __slots__ = ("_root",)
+    __slots__ = ("__weakref__", "_root",)
 
     KIND: ClassVar[str] = "pairing"
     _NODE: ClassVar[type[Any]] = _Node
