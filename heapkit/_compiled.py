@@ -17,7 +17,9 @@ __all__ = ["MODULES", "StaleBuildError", "running_compiled", "stale_extensions"]
 #: Modules that mypyc compiles, as dotted names.  Keep this a literal tuple of
 #: strings: setup.py reads it with ``ast.literal_eval``.
 MODULES: tuple[str, ...] = (
+    "heapkit._core",
     "heapkit.bench.graphs",
+    "heapkit.kinds.pairing.links",
 )
 
 _SUFFIXES = tuple(importlib.machinery.EXTENSION_SUFFIXES)

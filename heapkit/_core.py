@@ -60,8 +60,9 @@ from __future__ import annotations
 
 import threading
 from collections.abc import Callable, Iterable, Iterator
-from typing import TYPE_CHECKING, Any, ClassVar, Generic, TypeVar
+from typing import Any, ClassVar, Self
 
+from heapkit._mypyc import mypyc_attr
 from heapkit._order import WRAPPERS as WRAPPERS
 from heapkit._order import Stable as Stable
 from heapkit._order import seq_after
@@ -73,18 +74,12 @@ from heapkit.errors import nan_error as nan_error
 from heapkit.errors import upward_error as upward_error
 from heapkit.protocol import Handle, Heap
 
-if TYPE_CHECKING:
-    from typing import Self
-
-K = TypeVar("K")
-V = TypeVar("V")
-
 Wrap = Callable[[Any, Any], Any]
 
 #: Called with every heap constructed while ``HEAPKIT_DEBUG`` asks for it, except the
 #: heaps heapkit builds for its own use (``_spawn``, flagged in ``_internal``).
 _internal = threading.local()
-on_new: Callable[[HeapBase[Any, Any]], None] | None = None
+on_new: Callable[[HeapBase], None] | None = None
 
 class Owner:
     """Ownership token.  A heap holds one; a handle points at its heap's token.
@@ -113,21 +108,24 @@ def owner_root(tok: Owner) -> Owner:
     return tok
 
 
-class HandleBase(Generic[K, V]):
+@mypyc_attr(allow_interpreted_subclasses=True)
+class HandleBase:
     """A handle that is also the kind's node: ``key``, ``value``, ``alive``.
 
     Slots: ``_key`` (the user's key), ``_k`` (the ordering object compared),
-    ``value``, ``_tok`` (the owner token, None once dead).
+    ``value``, ``_tok`` (the owner token, None once dead).  Not ``Generic`` (a
+    compiled generic class never clears its weak references, see
+    ``docs/compiled-build.md``): a kind's node class adds ``Generic[K, V]``.
     """
 
     __slots__ = ("_k", "_key", "_tok", "value")
-    _key: K
+    _key: Any
     _k: Any
     _tok: Any
-    value: V
+    value: Any
 
     @property
-    def key(self) -> K:
+    def key(self) -> Any:
         """The entry's key (read-only; change it through the heap)."""
         return self._key
 
@@ -160,10 +158,16 @@ def seen_path(x: Any, seen: dict[int, tuple[Any, str]], missing: str = "?") -> l
     return steps
 
 
-class HeapBase(Generic[K, V]):
-    """Shared machinery of every kind (see the module docstring for the SPI)."""
+@mypyc_attr(allow_interpreted_subclasses=True)
+class HeapBase:
+    """Shared machinery of every kind (see the module docstring for the SPI).
 
-    __slots__ = ("__weakref__", "_ext", "_n", "_stable", "_tok", "_ver", "_wrap")
+    Ready for mypyc: not ``Generic`` and no ``__weakref__`` slot (each kind's public
+    class adds ``"__weakref__"`` to its ``__slots__`` and ``HeapFace[K, V]`` to its
+    bases for the typed signatures of the members below; see ``heapkit/_face.py``).
+    """
+
+    __slots__ = ("_ext", "_n", "_stable", "_tok", "_ver", "_wrap")
 
     KIND: ClassVar[str] = ""
     RULES: ClassVar[dict[str, str]] = {}
@@ -191,7 +195,7 @@ class HeapBase(Generic[K, V]):
         self._wrap = stable_wrap if stable else None
         self._ext = None
 
-    def _finish_init(self, pairs: Iterable[tuple[K, V]]) -> None:
+    def _finish_init(self, pairs: Iterable[tuple[Any, Any]]) -> None:
         """Load the constructor's pairs and honour ``HEAPKIT_DEBUG``; kinds call it last."""
         if pairs:
             self.extend(pairs)
@@ -267,7 +271,7 @@ class HeapBase(Generic[K, V]):
     def __bool__(self) -> bool:
         return self._n != 0
 
-    def __iter__(self) -> Iterator[Handle[K, V]]:
+    def __iter__(self) -> Iterator[Handle[Any, Any]]:
         """Every live handle, no order promised.  O(n) for the whole iteration.
 
         Raises ``RuntimeError`` if the heap changes while it runs.
@@ -309,7 +313,7 @@ class HeapBase(Generic[K, V]):
             raise InvalidHandleError(f"{op}: handle {h!r} belongs to another heap")
         h._tok = self._tok
 
-    def extend(self, pairs: Iterable[tuple[K, V]]) -> list[Handle[K, V]]:
+    def extend(self, pairs: Iterable[tuple[Any, Any]]) -> list[Handle[Any, Any]]:
         """Insert every ``(key, value)`` pair; all or nothing.  O(k) + one meld for most kinds.
 
         Builds a separate heap of the new entries, then melds it in, so a bad
@@ -329,7 +333,7 @@ class HeapBase(Generic[K, V]):
             self.meld(tmp)
         return handles
 
-    def _build(self, pairs: Iterable[tuple[K, V]]) -> list[Any]:
+    def _build(self, pairs: Iterable[tuple[Any, Any]]) -> list[Any]:
         """Fill an empty heap from pairs (kinds may override with an O(n) build)."""
         push = self.push  # type: ignore[attr-defined]
         return [push(k, v) for k, v in pairs]
@@ -342,7 +346,7 @@ class HeapBase(Generic[K, V]):
         finally:
             _internal.on = False
 
-    def meld(self, other: Heap[K, V] | HeapBase[K, V]) -> None:
+    def meld(self, other: Heap[Any, Any] | HeapBase) -> None:
         """Move every entry of ``other`` into this heap, emptying it.  The kind's meld bound.
 
         Handles from ``other`` stay valid and now belong to this heap.  Cost: the
@@ -466,8 +470,10 @@ class HeapBase(Generic[K, V]):
         return new  # type: ignore[no-any-return]
 
 
-class LeafHandle(Generic[K, V]):
-    """Base of handles that are not the kind's node (they point at it)."""
+@mypyc_attr(allow_interpreted_subclasses=True)
+class LeafHandle:
+    """Base of handles that are not the kind's node (they point at it); a kind's handle
+    class adds ``Generic[K, V]``."""
 
     __slots__ = ()
 

@@ -67,7 +67,7 @@ def test_stale_extension_is_found_and_refused(tmp_path: Path) -> None:
 
 def test_extension_of_an_unlisted_module_is_stale(tmp_path: Path) -> None:
     pkg = _tree(tmp_path)
-    orphan = pkg / f"_core{SUFFIX}"  # compiled once, then dropped from MODULES
+    orphan = pkg / f"protocol{SUFFIX}"  # compiled once, then dropped from MODULES
     orphan.write_bytes(b"")
     assert _compiled.stale_extensions(str(pkg)) == [str(orphan)]
 

@@ -32,7 +32,8 @@ __all__ = ["BinaryHeap"]
 K = TypeVar("K")
 V = TypeVar("V")
 
-_new = object.__new__
+# The node class's __new__: object's when pure; a compiled HandleBase refuses object.__new__.
+_new = _Slot.__new__
 
 
 class BinaryHeap(DaryHeap[K, V]):

@@ -8,7 +8,7 @@ anything moved.  Used by ``heap.py``, ``rules.py`` and ``cost.py``; no recursion
 
 from __future__ import annotations
 
-from typing import Any, TypeVar
+from typing import Any, Generic, TypeVar
 
 from heapkit._core import HandleBase
 
@@ -18,7 +18,7 @@ K = TypeVar("K")
 V = TypeVar("V")
 
 
-class _Node(HandleBase[K, V]):
+class _Node(HandleBase, Generic[K, V]):
     """Handle and tree node: ``_child`` (leftmost, highest degree), ``_next``
     (right sibling), ``_prev`` (left sibling, or the parent for a leftmost
     child, None for a root), ``_deg`` (number of children)."""

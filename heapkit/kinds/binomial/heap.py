@@ -53,9 +53,10 @@ Communications of the ACM 21(4) (1978) 309-315 (pages recalled from memory).
 from __future__ import annotations
 
 from collections.abc import Callable, Iterable, Iterator
-from typing import Any, ClassVar, Generic, TypeVar
+from typing import Any, ClassVar, TypeVar
 
 from heapkit._core import HeapBase, empty_error, nan_error, upward_error
+from heapkit._face import HeapFace
 from heapkit.kinds.binomial import cost as _cost
 from heapkit.kinds.binomial import rules as _rules
 from heapkit.kinds.binomial.forest import _ancestors, _apply, _Node, _plan, _plan_push, _scan
@@ -67,7 +68,7 @@ K = TypeVar("K")
 V = TypeVar("V")
 
 
-class BinomialHeap(HeapBase[K, V], Generic[K, V]):
+class BinomialHeap(HeapFace[K, V], HeapBase):
     """Eager binomial heap with handles.
 
     >>> h = BinomialHeap([(5, 'e'), (2, 'b')])
@@ -77,7 +78,7 @@ class BinomialHeap(HeapBase[K, V], Generic[K, V]):
     ((1, 'i'), (2, 'b'), 1)
     """
 
-    __slots__ = ("_min", "_raised", "_roots")
+    __slots__ = ("__weakref__", "_min", "_raised", "_roots")
 
     KIND: ClassVar[str] = "binomial"
     BOUNDS: ClassVar[str] = "push O(1) amortized; push, meld, pop, remove, decrease_key, change_key O(log n) worst-case"

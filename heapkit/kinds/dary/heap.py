@@ -44,6 +44,7 @@ from collections.abc import Callable, Iterable, Iterator
 from typing import Any, ClassVar, Generic, TypeVar
 
 from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, upward_error
+from heapkit._face import HeapFace
 from heapkit.kinds.dary import bulk as _bulk
 from heapkit.kinds.dary import cost as _cost
 from heapkit.kinds.dary import rules as _rules
@@ -54,10 +55,8 @@ __all__ = ["DaryHeap"]
 K = TypeVar("K")
 V = TypeVar("V")
 
-_new = object.__new__
 
-
-class _Slot(HandleBase[K, V]):
+class _Slot(HandleBase, Generic[K, V]):
     """Handle of an array heap entry; ``_i`` is its position in the list."""
 
     __slots__ = ("_i",)
@@ -70,7 +69,11 @@ class _Slot(HandleBase[K, V]):
         self._i = -1
 
 
-class DaryHeap(HeapBase[K, V], Generic[K, V]):
+# The node class's __new__: object's when pure; a compiled HandleBase refuses object.__new__.
+_new = _Slot.__new__
+
+
+class DaryHeap(HeapFace[K, V], HeapBase):
     """Array heap of any arity (``dary`` is 4; ``binary``, in kinds/binary/, is 2) with handles.
 
     >>> h = DaryHeap([(5, 'e'), (2, 'b')], arity=4)
@@ -80,7 +83,7 @@ class DaryHeap(HeapBase[K, V], Generic[K, V]):
     [(1, 'i'), (2, 'b'), (5, 'e')]
     """
 
-    __slots__ = ("_a", "_d", "_w")
+    __slots__ = ("__weakref__", "_a", "_d", "_w")
 
     KIND: ClassVar[str] = "dary"
     _NODE: ClassVar[type[Any]] = _Slot

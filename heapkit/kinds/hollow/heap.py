@@ -54,6 +54,7 @@ from collections.abc import Callable, Iterable, Iterator
 from typing import Any, ClassVar, Generic, TypeVar
 
 from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, upward_error
+from heapkit._face import HeapFace
 from heapkit.kinds.hollow import cost as _cost
 from heapkit.kinds.hollow import rules as _rules
 from heapkit.kinds.hollow.dag import Node, children, delete_root
@@ -65,7 +66,7 @@ K = TypeVar("K")
 V = TypeVar("V")
 
 
-class _Entry(HandleBase[K, V]):
+class _Entry(HandleBase, Generic[K, V]):
     """Handle of a hollow heap entry; ``_node`` is the full node holding it now."""
 
     __slots__ = ("_node",)
@@ -78,7 +79,7 @@ class _Entry(HandleBase[K, V]):
         self._node: Any = None
 
 
-class HollowHeap(HeapBase[K, V], Generic[K, V]):
+class HollowHeap(HeapFace[K, V], HeapBase):
     """Hollow heap with handles: O(1) push, meld and decrease_key.
 
     >>> h = HollowHeap([(5, 'e'), (2, 'b')])
@@ -88,7 +89,7 @@ class HollowHeap(HeapBase[K, V], Generic[K, V]):
     [(1, 'i'), (2, 'b'), (5, 'e')]
     """
 
-    __slots__ = ("_h", "_hr", "_root", "_u", "_work")
+    __slots__ = ("__weakref__", "_h", "_hr", "_root", "_u", "_work")
 
     KIND: ClassVar[str] = "hollow"
     BOUNDS: ClassVar[str] = "push, meld, decrease_key O(1) worst-case; pop, remove, change_key O(log n) amortized"

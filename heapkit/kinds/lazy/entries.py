@@ -9,7 +9,7 @@ user ``==``; tied bare keys compare the handles, and no handle is smaller.
 from __future__ import annotations
 
 import operator
-from typing import Any, TypeVar
+from typing import Any, Generic, TypeVar
 
 from heapkit._core import WRAPPERS, LeafHandle, Stable, seq_of
 
@@ -74,7 +74,7 @@ def _normal(o: Any) -> Any:
     return _Ord(o)
 
 
-class _Handle(LeafHandle[K, V]):
+class _Handle(LeafHandle, Generic[K, V]):
     """Handle: ``_e`` is the current entry while alive, the last ordering object once dead.
 
     Two slots keep it at 48 bytes.  Handles only meet in a comparison when two

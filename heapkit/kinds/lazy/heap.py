@@ -49,7 +49,7 @@ from __future__ import annotations
 
 from collections.abc import Callable, Iterable, Iterator
 from heapq import heapify, heappop, heappush
-from typing import Any, ClassVar, Generic, TypeVar
+from typing import Any, ClassVar, TypeVar
 
 from heapkit._core import (
     HeapBase,
@@ -60,6 +60,7 @@ from heapkit._core import (
     owner_root,
     upward_error,
 )
+from heapkit._face import HeapFace
 from heapkit.errors import InvalidHandleError
 from heapkit.kinds.lazy import cost as _cost
 from heapkit.kinds.lazy import rules as _rules
@@ -83,7 +84,7 @@ __all__ = ["LazyHeap"]
 K = TypeVar("K")
 V = TypeVar("V")
 
-class LazyHeap(HeapBase[K, V], Generic[K, V]):
+class LazyHeap(HeapFace[K, V], HeapBase):
     """Binary array heap on the C ``heapq`` functions, invalidating entries lazily.
 
     >>> h = LazyHeap([(5, 'e'), (2, 'b')])
@@ -93,7 +94,7 @@ class LazyHeap(HeapBase[K, V], Generic[K, V]):
     [(1, 'i'), (2, 'b'), (5, 'e')]
     """
 
-    __slots__ = ("_a", "_stale")
+    __slots__ = ("__weakref__", "_a", "_stale")
     KIND: ClassVar[str] = "lazy"
     BOUNDS: ClassVar[str] = "push O(log n); pop, decrease_key, change_key O(log n) amortized; remove O(1) amortized"
     WORST_CASE: ClassVar[bool] = False

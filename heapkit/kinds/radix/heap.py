@@ -52,6 +52,7 @@ from operator import attrgetter
 from typing import Any, ClassVar, Generic, TypeVar
 
 from heapkit._core import HandleBase, HeapBase, empty_error, upward_error
+from heapkit._face import HeapFace
 from heapkit.errors import KeyOrderError
 from heapkit.kinds.radix import cost as _cost
 from heapkit.kinds.radix import rules as _rules
@@ -64,10 +65,9 @@ K = TypeVar("K", bound=int)
 V = TypeVar("V")
 
 _order = attrgetter("_k")
-_new = object.__new__
 
 
-class _Item(HandleBase[K, V]):
+class _Item(HandleBase, Generic[K, V]):
     """Handle of a radix heap entry: ``_i`` is its place in its bucket."""
 
     __slots__ = ("_i",)
@@ -102,7 +102,11 @@ def _key_error(op: str, key: object, last: int) -> KeyOrderError:
     )
 
 
-class RadixHeap(HeapBase[K, V], Generic[K, V]):
+# The node class's __new__: object's when pure; a compiled HandleBase refuses object.__new__.
+_new = _Item.__new__
+
+
+class RadixHeap(HeapFace[K, V], HeapBase):
     """Radix heap for monotone non-negative integer keys (Dijkstra, event times).
 
     >>> h = RadixHeap([(5, 'e'), (2, 'b')])
@@ -116,7 +120,7 @@ class RadixHeap(HeapBase[K, V], Generic[K, V]):
     heapkit.errors.KeyOrderError: push: key 1 is too low: ... the last popped key, which is 5
     """
 
-    __slots__ = ("_buckets", "_last")
+    __slots__ = ("__weakref__", "_buckets", "_last")
 
     KIND: ClassVar[str] = "radix"
     _NODE: ClassVar[type[Any]] = _Item

@@ -64,6 +64,7 @@ from collections.abc import Callable, Iterable, Iterator
 from typing import Any, ClassVar, Generic, TypeVar
 
 from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, upward_error
+from heapkit._face import HeapFace
 from heapkit.kinds.rank_pairing import cost as _cost
 from heapkit.kinds.rank_pairing import rules as _rules
 from heapkit.kinds.rank_pairing.cuts import cut, enlist, ring, spill, unspine
@@ -75,7 +76,7 @@ __all__ = ["RankPairingHeap"]
 K = TypeVar("K")
 V = TypeVar("V")
 
-class _Node(HandleBase[K, V]):
+class _Node(HandleBase, Generic[K, V]):
     """Handle and node: ``_left``, ``_right``, ``_up`` (parent; None at a root),
     ``_next``/``_prev`` (root list; None below the roots), ``_rank``."""
 
@@ -94,7 +95,7 @@ class _Node(HandleBase[K, V]):
         self._rank = 0
 
 
-class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
+class RankPairingHeap(HeapFace[K, V], HeapBase):
     """Rank-pairing heap (type-2 ranks) with handles.
 
     >>> h = RankPairingHeap([(5, 'e'), (2, 'b')])
@@ -104,7 +105,7 @@ class RankPairingHeap(HeapBase[K, V], Generic[K, V]):
     ((1, 'i'), (2, 'b'), 1)
     """
 
-    __slots__ = ("_bins", "_first", "_rs", "_rt", "_work", "_zs")
+    __slots__ = ("__weakref__", "_bins", "_first", "_rs", "_rt", "_work", "_zs")
 
     KIND: ClassVar[str] = "rank-pairing"
     BOUNDS: ClassVar[str] = "push, meld, decrease_key O(1) amortized; pop, remove, change_key O(log n) amortized"

@@ -49,9 +49,10 @@ from __future__ import annotations
 
 from collections.abc import Callable, Iterable, Iterator
 from heapq import heappop, heappush
-from typing import Any, ClassVar, Generic, TypeVar
+from typing import Any, ClassVar, TypeVar
 
 from heapkit._core import HeapBase, empty_error, nan_error, upward_error
+from heapkit._face import HeapFace
 from heapkit.kinds.dary.heap import _Slot  # the array-position handle, shared with the d-ary heap
 from heapkit.kinds.weak import cost as _cost
 from heapkit.kinds.weak import rules as _rules
@@ -62,7 +63,8 @@ __all__ = ["WeakHeap"]
 K = TypeVar("K")
 V = TypeVar("V")
 
-_new = object.__new__
+# The node class's __new__: object's when pure; a compiled HandleBase refuses object.__new__.
+_new = _Slot.__new__
 
 
 def d_ancestor(r: bytearray, j: int) -> int:
@@ -76,7 +78,7 @@ def d_ancestor(r: bytearray, j: int) -> int:
     return j >> 1
 
 
-class WeakHeap(HeapBase[K, V], Generic[K, V]):
+class WeakHeap(HeapFace[K, V], HeapBase):
     """Weak heap in an array (Dutton 1993) with handles; the fewest key comparisons.
 
     ``meld`` appends the other heap's entries as pending positions: O(m) moves, no
@@ -89,7 +91,7 @@ class WeakHeap(HeapBase[K, V], Generic[K, V]):
     [(1, 'i'), (2, 'b'), (5, 'e')]
     """
 
-    __slots__ = ("_a", "_r", "_s", "_up", "_work")
+    __slots__ = ("__weakref__", "_a", "_r", "_s", "_up", "_work")
 
     KIND: ClassVar[str] = "weak"
     BOUNDS: ClassVar[str] = (

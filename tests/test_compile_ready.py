@@ -1,0 +1,162 @@
+"""The shared core keeps the rules mypyc needs (docs/compiled-build.md), and what they move
+(weak references on the public classes, typing on ``HeapFace``) works on every kind."""
+
+from __future__ import annotations
+
+import ast
+import copy
+import gc
+import pickle
+import weakref
+from pathlib import Path
+from typing import Any, Generic
+
+import pytest
+
+import heapkit
+from heapkit import _core, audit, checked
+from heapkit._compiled import MODULES
+from heapkit._face import HeapFace
+from heapkit.concurrent.guard import guard_of
+from tests.kinds import NAMES, make
+
+#: Modules written for mypyc: the list it compiles plus the core the kinds share.
+READY = sorted(set(MODULES) | {"heapkit._core"})
+
+
+def _source(module: str) -> ast.Module:
+    base = Path(heapkit.__file__).parent.parent
+    path = base.joinpath(*module.split(".")).with_suffix(".py")
+    if not path.exists():  # an installed compiled wheel may ship without its sources
+        pytest.skip(f"no source for {module} beside the installed package")
+    return ast.parse(path.read_text(encoding="utf-8"))
+
+
+def _names(node: ast.expr) -> str:
+    return ast.unparse(node)
+
+
+@pytest.mark.parametrize("module", READY)
+def test_compiled_modules_keep_the_mypyc_rules(module: str) -> None:
+    """Rules of docs/compiled-build.md §3 (each one a crash or a silent fault when broken):
+    no Generic base, no __weakref__ slot, no TYPE_CHECKING/else, no object.__new__."""
+    tree = _source(module)
+    # object.__new__ is allowed behind the pure-build switch only (never run when compiled).
+    switched = any(
+        isinstance(n, ast.AnnAssign | ast.Assign) and "_PURE" in ast.unparse(n).split("=")[0]
+        for n in tree.body
+    )
+    problems: list[str] = []
+    for node in ast.walk(tree):
+        if isinstance(node, ast.ClassDef):
+            bases = [_names(b) for b in node.bases]
+            if any(b == "Generic" or b.startswith(("Generic[", "HeapBase[", "HandleBase[")) for b in bases):
+                problems.append(f"class {node.name} has a generic base {bases}")
+            for stmt in node.body:
+                slots = isinstance(stmt, ast.Assign) and any(
+                    isinstance(t, ast.Name) and t.id == "__slots__" for t in stmt.targets
+                )
+                if slots and "__weakref__" in ast.literal_eval(stmt.value):
+                    problems.append(f"class {node.name} lists __weakref__ in __slots__")
+        if isinstance(node, ast.If) and "TYPE_CHECKING" in _names(node.test) and node.orelse:
+            problems.append(f"line {node.lineno}: if TYPE_CHECKING with an else")
+        if isinstance(node, ast.Attribute) and _names(node) == "object.__new__" and not switched:
+            problems.append(f"line {node.lineno}: object.__new__")
+    assert problems == []
+
+
+def test_core_classes_allow_interpreted_subclasses() -> None:
+    """Every class of _core that kinds subclass carries mypyc's allow_interpreted_subclasses
+    (without it a compiled base refuses, or later crashes on, a Python subclass)."""
+    tree = _source("heapkit._core")
+    flagged = {
+        node.name
+        for node in ast.walk(tree)
+        if isinstance(node, ast.ClassDef)
+        and any("allow_interpreted_subclasses=True" in _names(d) for d in node.decorator_list)
+    }
+    assert {"HeapBase", "HandleBase", "LeafHandle"} <= flagged
+
+
+def test_heapbase_is_not_generic_and_has_no_weakref_slot() -> None:
+    # a compiled Generic class never clears its weak references (docs/compiled-build.md §5)
+    for cls in (_core.HeapBase, _core.HandleBase, _core.LeafHandle):
+        assert Generic not in cls.__mro__, cls
+    assert _core.HeapBase.__weakrefoffset__ == 0  # no weak-reference slot (both builds)
+
+
+@pytest.mark.parametrize("name", NAMES)
+def test_public_classes_carry_the_weakref_slot_and_the_typed_face(name: str) -> None:
+    cls = heapkit.KINDS[name]
+    owner = next(c for c in cls.__mro__ if "__weakref__" in c.__dict__.get("__slots__", ()))
+    assert issubclass(owner, _core.HeapBase) and owner is not _core.HeapBase
+    assert cls.__weakrefoffset__ != 0
+    mro = cls.__mro__
+    assert mro.index(HeapFace) < mro.index(_core.HeapBase)  # mypy reads HeapFace's signatures
+
+
+def _finalized(h: Any) -> list[str]:
+    fired: list[str] = []
+    weakref.finalize(h, fired.append, "gone")
+    return fired
+
+
+@pytest.mark.parametrize("name", NAMES)
+@pytest.mark.parametrize("mode", ["plain", "checked", "audit"])
+def test_weak_references_and_finalize_work_in_every_mode(name: str, mode: str) -> None:
+    """weakref.finalize fires (the audit's pending reports rely on it) and the concurrency
+    lock registry finds one lock per heap, in every mode (a class switch keeps the slot)."""
+    h = make(name, pairs=[(3, "c"), (1, "a"), (2, "b")])
+    session = None
+    if mode == "checked":
+        checked(h)
+    elif mode == "audit":
+        session = audit(h)
+        session.__enter__()
+    ref = weakref.ref(h)
+    assert ref() is h
+    assert guard_of(h) is guard_of(h)
+    fired = _finalized(h)
+    assert h.pop() == (1, "a")  # heapq order (common practice: smallest key first)
+    if session is not None:
+        session.__exit__(None, None, None)
+    del h, session
+    gc.collect()
+    assert ref() is None
+    assert fired == ["gone"]
+
+
+# Also the regression test of WeakHeap's copies: it had no ``_layout_problem``, so the
+# base refused its own ``_export`` layout and every copy and pickle raised ValueError.
+@pytest.mark.parametrize("name", NAMES)
+def test_copies_and_pickles_are_instances_of_the_public_class(name: str) -> None:
+    h = make(name, pairs=[(5, "e"), (2, "b"), (7, "g")])
+    for other in (copy.copy(h), copy.deepcopy(h), pickle.loads(pickle.dumps(h))):
+        assert type(other) is type(h)
+        assert weakref.ref(other)() is other
+    assert sorted(x.key for x in copy.copy(h)) == sorted([5, 2, 7])  # sorted(): outside check
+
+
+def test_pairing_core_is_never_the_class_of_a_heap() -> None:
+    """Modes switch ``__class__``; on an instance of the compiled core itself compiled callers
+    would keep the core's methods (docs/compiled-build.md §4), so every constructor path
+    makes the public class."""
+    from heapkit.kinds.pairing import PairingHeap
+    from heapkit.kinds.pairing.links import _Node, _PairingCore
+
+    h = PairingHeap([(3, "c"), (1, "a")])
+    made = [h, h._spawn(), copy.copy(h), copy.deepcopy(h), pickle.loads(pickle.dumps(h)), heapkit.new("pairing")]
+    for other in made:
+        assert type(other) is PairingHeap and type(other) is not _PairingCore
+    assert _Node.__subclasses__() == []  # sealed: compiled with no flag for subclasses
+
+
+def test_pure_switch_matches_the_build() -> None:
+    """pairing.links makes nodes with object.__new__ only when it runs as source."""
+    from heapkit._compiled import _is_extension
+    from heapkit.kinds.pairing import links as pairing_links
+
+    assert pairing_links._PURE is not _is_extension(pairing_links)
+    h = heapkit.PairingHeap()
+    x = h.push(2, "b")
+    assert (x.key, x.value, x.alive) == (2, "b", True)
