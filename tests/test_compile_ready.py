@@ -156,7 +156,7 @@ def test_pure_switch_matches_the_build() -> None:
     from heapkit._compiled import _is_extension
     from heapkit.kinds.pairing import links as pairing_links
 
-    assert pairing_links._PURE is not _is_extension(pairing_links)
+    assert pairing_links._PURE is not _is_extension(pairing_links.__spec__)
     h = heapkit.PairingHeap()
     x = h.push(2, "b")
     assert (x.key, x.value, x.alive) == (2, "b", True)
