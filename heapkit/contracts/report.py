@@ -157,8 +157,13 @@ def check(heap: Any) -> Shape:
 def _survey_keys(report: Report, heap: Any) -> None:
     """Rule "key" of every kind: no key is or holds NaN (push refuses them).  O(size of the keys)."""
     for h in heap._handles():
-        if nan_inside(h.key):
-            report.fail("key", h, [], "the key is or holds a value not equal to itself (NaN)")
+        _key_rule(report, h, h.key)
+
+
+def _key_rule(report: Report, h: Any, key: Any) -> None:
+    """Rule "key", for heapkit's kinds and users' queues alike: ``key`` is not and holds no NaN."""
+    if nan_inside(key):
+        report.fail("key", h, [], "the key is or holds a value not equal to itself (NaN)")
 
 
 def _check_protocol(heap: Any) -> Shape:
@@ -203,8 +208,7 @@ def _survey_protocol(report: Report, heap: Any, n: int) -> bool:
             report.fail("alive", h, [], "iteration gives a dead handle")
         elif member and h not in heap:
             report.fail("alive", h, [], "an iterated handle is not `in` the heap")
-        if nan_inside(_key_of(h)):
-            report.fail("key", h, [], "the key is or holds a value not equal to itself (NaN)")
+        _key_rule(report, h, _key_of(h))
     if not handles:
         return True
     top = heap.peek()
