@@ -81,6 +81,7 @@ Wrap = Callable[[Any, Any], Any]
 _internal = threading.local()
 on_new: Callable[[HeapBase], None] | None = None
 
+
 class Owner:
     """Ownership token.  A heap holds one; a handle points at its heap's token.
 
@@ -362,9 +363,7 @@ class HeapBase:
         if other is self:
             raise ValueError(f"meld: cannot meld a {type(self).__name__} into itself")
         if not isinstance(other, HeapBase) or other._family() is not self._family():
-            raise TypeError(
-                f"meld: expected another {self._family().__name__}, got {type(other).__name__}"
-            )
+            raise TypeError(f"meld: expected another {self._family().__name__}, got {type(other).__name__}")
         if other._stable != self._stable or other._options() != self._options():
             mine = {"stable": self._stable, **self._options()}
             theirs = {"stable": other._stable, **other._options()}
@@ -485,9 +484,7 @@ def foreign_error(op: str, h: Any) -> Exception:
         if h.alive:  # type: ignore[union-attr]
             return InvalidHandleError(f"{op}: handle {h!r} belongs to a heap of another kind")
         if isinstance(h, LeafHandle) or h._tok is None:
-            return InvalidHandleError(
-                f"{op}: handle {h!r} is dead (its entry was popped, removed or cleared)"
-            )
+            return InvalidHandleError(f"{op}: handle {h!r} is dead (its entry was popped, removed or cleared)")
     return TypeError(f"{op}: expected a handle returned by push, got {h!r}")
 
 

@@ -143,9 +143,7 @@ def _failed(heap: Any, st: _State) -> None:
     st.last_ver = -1
 
 
-def _record(
-    heap: Any, st: _State, code: int, n: int, actual: int, phi0: float, bound: float, c0: int
-) -> None:
+def _record(heap: Any, st: _State, code: int, n: int, actual: int, phi0: float, bound: float, c0: int) -> None:
     phi1 = heap._phi()
     cmp = _COUNT - c0
     for led in st.ledgers:
@@ -180,8 +178,11 @@ def _measured(heap: Any, st: _State, op: str, target: Any, call: Callable[..., A
 def _meldable(heap: Any, other: Any) -> bool:
     """Would the shared ``meld`` accept ``other``?  (If not, it raises; nothing to record.)"""
     return (
-        isinstance(other, HeapBase) and other is not heap and other._family() is heap._family()
-        and other._stable == heap._stable and other._options() == heap._options()
+        isinstance(other, HeapBase)
+        and other is not heap
+        and other._family() is heap._family()
+        and other._stable == heap._stable
+        and other._options() == heap._options()
     )
 
 
@@ -305,15 +306,22 @@ def _make_methods(base: type) -> dict[str, Any]:
         text = b_repr(self)
         name = type(self).__name__
         if text.startswith(f"<{name}") and name.startswith("Audited"):
-            text = f"<{name[7:]}{text[len(name) + 1:]}"
+            text = f"<{name[7:]}{text[len(name) + 1 :]}"
         return text if _state(self) is None else mode_repr(text, "audited")
 
     return {
-        "__repr__": __repr__, "push": push, "pop": pop, "extend": extend, "meld": meld, "clear": clear,
+        "__repr__": __repr__,
+        "push": push,
+        "pop": pop,
+        "extend": extend,
+        "meld": meld,
+        "clear": clear,
         "decrease_key": _handle_op("decrease_key", b_dec),
         "change_key": _handle_op("change_key", b_chg),
         "remove": _handle_op("remove", b_rem),
-        "_reset": _reset, "__copy__": __copy__, "__setstate__": __setstate__,
+        "_reset": _reset,
+        "__copy__": __copy__,
+        "__setstate__": __setstate__,
     }
 
 

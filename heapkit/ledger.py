@@ -68,10 +68,12 @@ class Record(NamedTuple):
     comparisons: int
 
     def __repr__(self) -> str:
-        return (f"Record(step={self.step}, op={self.op!r}, n={self.n}, actual={self.actual}, "
-                f"phi_before={_num(self.phi_before)}, phi_after={_num(self.phi_after)}, "
-                f"amortized={_num(self.amortized)}, bound={_num(self.bound)}, "
-                f"comparisons={self.comparisons})")
+        return (
+            f"Record(step={self.step}, op={self.op!r}, n={self.n}, actual={self.actual}, "
+            f"phi_before={_num(self.phi_before)}, phi_after={_num(self.phi_after)}, "
+            f"amortized={_num(self.amortized)}, bound={_num(self.bound)}, "
+            f"comparisons={self.comparisons})"
+        )
 
 
 class _Tally:
@@ -189,8 +191,10 @@ class Ledger:
 
     def __repr__(self) -> str:
         heaps = "" if self.heaps == 1 else f", heaps={self.heaps}"
-        return (f"<Ledger {self.kind}: {self.count} operation(s){heaps}, keep={self.keep!r}, "
-                f"{self.violation_count} over bound>")
+        return (
+            f"<Ledger {self.kind}: {self.count} operation(s){heaps}, keep={self.keep!r}, "
+            f"{self.violation_count} over bound>"
+        )
 
     def __add__(self, other: Ledger) -> Ledger:
         """The two audits combined, as one ledger of their kind.  O(records) or O(totals).
@@ -214,8 +218,9 @@ class Ledger:
                 "do not combine; combine them per kind"
             )
         both_all = self.keep == other.keep == "all"
-        out = Ledger(self.kind, self.unit, self.phi_c, keep="all" if both_all else "totals",
-                     top=max(self.top, other.top))
+        out = Ledger(
+            self.kind, self.unit, self.phi_c, keep="all" if both_all else "totals", top=max(self.top, other.top)
+        )
         out.heaps = self.heaps + other.heaps
         out.count = self.count + other.count
         starts = [x for x in (self.phi_start, other.phi_start) if x is not None]
@@ -302,8 +307,15 @@ class Ledger:
     def _row(self, i: int) -> Record:
         code, n, actual, phi0, phi1, bound, cmp = self._rows[_W * i : _W * i + _W]
         return Record(
-            i, OPS[int(code)], int(n), int(actual), phi0, phi1,
-            actual + self.phi_c * (phi1 - phi0), bound, int(cmp),
+            i,
+            OPS[int(code)],
+            int(n),
+            int(actual),
+            phi0,
+            phi1,
+            actual + self.phi_c * (phi1 - phi0),
+            bound,
+            int(cmp),
         )
 
     def _column(self, j: int) -> array[float]:
@@ -328,9 +340,7 @@ class Ledger:
         else:
             src = {}
             c = self.phi_c
-            for code, n, actual, p0, p1, bound, cmp in zip(
-                *(self._column(j) for j in range(_W)), strict=True
-            ):
+            for code, n, actual, p0, p1, bound, cmp in zip(*(self._column(j) for j in range(_W)), strict=True):
                 code, n, actual, cmp = int(code), int(n), int(actual), int(cmp)
                 tally = src.get(code)
                 if tally is None:
@@ -373,15 +383,22 @@ class Ledger:
         audit of binary: 1 operation(s); cost in levels an entry moves + 1; c = 1
         """
         heaps = "" if self.heaps == 1 else f" ({self.heaps} heaps combined)"
-        head = (f"audit of {self.kind}{heaps}: {self.count} operation(s); cost in {self.unit}; "
-                f"c = {self.phi_c:g}")
+        head = f"audit of {self.kind}{heaps}: {self.count} operation(s); cost in {self.unit}; c = {self.phi_c:g}"
         cols = ("op", "count", "mean", "p99", "max", "max amort.", "bound@max n", "cmp/op")
         rows = [cols]
         for name, t in self.tallies().items():
-            rows.append((
-                name, str(t.count), f"{t.total / t.count:.2f}", str(t.p99()), str(max(t.costs)),
-                f"{t.amortized_max:.2f}", f"{t.bound_at_max_n:.2f}", f"{t.comparisons / t.count:.2f}",
-            ))
+            rows.append(
+                (
+                    name,
+                    str(t.count),
+                    f"{t.total / t.count:.2f}",
+                    str(t.p99()),
+                    str(max(t.costs)),
+                    f"{t.amortized_max:.2f}",
+                    f"{t.bound_at_max_n:.2f}",
+                    f"{t.comparisons / t.count:.2f}",
+                )
+            )
         widths = [max(len(r[j]) for r in rows) for j in range(len(cols))]
         lines = [head, "  actual cost: mean, p99, max | amortized = actual + c·ΔΦ"]
         for r in rows:
@@ -390,8 +407,10 @@ class Ledger:
         lines.extend(self._sum_rule())
         if self.violation_count:
             first = self.violations[0]
-            lines.append(f"  OVER BOUND: {self.violation_count} operation(s); first #{first.step} "
-                         f"{first.op} at n={first.n}: amortized {first.amortized:.2f} > {first.bound:.2f}")
+            lines.append(
+                f"  OVER BOUND: {self.violation_count} operation(s); first #{first.step} "
+                f"{first.op} at n={first.n}: amortized {first.amortized:.2f} > {first.bound:.2f}"
+            )
         else:
             lines.append("  every amortized cost within its bound")
         return "\n".join(lines)

@@ -139,8 +139,12 @@ class _Trace:
             self.out.flush()
         except Exception as exc:  # any failure of the file: the op took effect, keep its result
             self.error = exc
-            _log.error("trace %r: write of line %d failed (%s); later operations are not recorded",
-                       self.name, self.lines + 1, exc)
+            _log.error(
+                "trace %r: write of line %d failed (%s); later operations are not recorded",
+                self.name,
+                self.lines + 1,
+                exc,
+            )
             return
         self.lines += 1
 

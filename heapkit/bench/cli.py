@@ -64,8 +64,12 @@ def add_parser(subparsers: Any) -> argparse.ArgumentParser:
         "and report the median ratios kind/baseline per workload (below 1: the kind is faster).",
         epilog="workloads and sections: " + ", ".join(names),
     )
-    p.add_argument("--workload", action="append", metavar="NAME",
-                   help="a workload or section to run (repeat or comma-separate; default: all)")
+    p.add_argument(
+        "--workload",
+        action="append",
+        metavar="NAME",
+        help="a workload or section to run (repeat or comma-separate; default: all)",
+    )
     add_kinds(p)
     p.add_argument("--quick", action="store_true", help="small sizes (about 1/20), fewer repetitions")
     p.add_argument("--json", metavar="PATH", help="also write every figure to PATH as JSON")
@@ -116,8 +120,11 @@ def suggestion(results: Mapping[str, Mapping[str, Any]]) -> Recommendation:
         for kind, cell in results[name]["kinds"].items():
             if cell["ok"] and cell["ratios"]:
                 per.setdefault(kind, []).append(cell["ratios"])
-    samples = {k: [statistics.geometric_mean(col) for col in zip(*v, strict=False)]
-               for k, v in per.items() if len(v) == len(dk)}
+    samples = {
+        k: [statistics.geometric_mean(col) for col in zip(*v, strict=False)]
+        for k, v in per.items()
+        if len(v) == len(dk)
+    }
     return recommend(samples, _ratio)
 
 
@@ -163,9 +170,14 @@ def _measure(args: argparse.Namespace, wanted: list[str], names: list[str]) -> d
         say("warning: HEAPKIT_DEBUG is set, so heaps are checked or audited; timings include that")
     report: dict[str, Any] = {
         "meta": {
-            "python": platform.python_version(), "machine": platform.machine(),
-            "cpus": os.cpu_count(), "quick": bool(args.quick), "repeat": repeat,
-            "scale": SIZES["scale"][q], "kinds": names, "clock": "time.process_time, gc paused",
+            "python": platform.python_version(),
+            "machine": platform.machine(),
+            "cpus": os.cpu_count(),
+            "quick": bool(args.quick),
+            "repeat": repeat,
+            "scale": SIZES["scale"][q],
+            "kinds": names,
+            "clock": "time.process_time, gc paused",
         },
         "workloads": {},
     }
@@ -175,25 +187,42 @@ def _measure(args: argparse.Namespace, wanted: list[str], names: list[str]) -> d
         say(f"{name}: making data")
         data = w.make(SIZES["scale"][q])
         rows = measure.time_workload(w, data, kinds, repeat, say)
-        cells = {k: {"ratio": r.ratio, "ok": r.ok, "ratios": r.ratios, "kind_s": r.kind_s,
-                     "base_s": r.base_s, "tuple_ratio": r.tuple_ratio, "tuple_ratios": r.tuple_ratios,
-                     "tuple_s": r.tuple_s} for k, r in rows.items()}
+        cells = {
+            k: {
+                "ratio": r.ratio,
+                "ok": r.ok,
+                "ratios": r.ratios,
+                "kind_s": r.kind_s,
+                "base_s": r.base_s,
+                "tuple_ratio": r.tuple_ratio,
+                "tuple_ratios": r.tuple_ratios,
+                "tuple_s": r.tuple_s,
+            }
+            for k, r in rows.items()
+        }
         failed = failed or not all(r.ok for r in rows.values())
         base = [t for r in rows.values() for t in r.base_s]
         tup = [t for r in rows.values() for t in r.tuple_s]
         verdict = recommend({k: r.ratios for k, r in rows.items() if r.ok}, _ratio)
         report["workloads"][name] = {
-            "what": w.what, "baseline_s": statistics.median(base) if base else None,
+            "what": w.what,
+            "baseline_s": statistics.median(base) if base else None,
             "tuple_s": statistics.median(tup) if tup else None,
-            "kinds": cells, "fastest": verdict.best, "verdict": verdict.line,
+            "kinds": cells,
+            "fastest": verdict.best,
+            "verdict": verdict.line,
         }
     if "comparisons" in wanted:
         n = SIZES["comparisons"][q]
         say(f"comparisons: n = {n}")
         counts = measure.comparisons(kinds, n)
         lower = measure.log2_factorial(n)
-        report["comparisons"] = {"n": n, "log2_factorial": lower, "counts": counts,
-                                 "per_log2_factorial": {k: c / lower for k, c in counts.items()}}
+        report["comparisons"] = {
+            "n": n,
+            "log2_factorial": lower,
+            "counts": counts,
+            "per_log2_factorial": {k: c / lower for k, c in counts.items()},
+        }
     if "memory" in wanted:
         n = SIZES["memory"][q]
         say(f"memory: n = {n}")
@@ -205,13 +234,20 @@ def _measure(args: argparse.Namespace, wanted: list[str], names: list[str]) -> d
         w = WORKLOADS["dijkstra-sparse"]
         data = w.make(SIZES["contracts"][q])
         small = w.make(SIZES["contracts-small"][q])
-        report["contracts"] = {"workload": w.name, "scale": SIZES["contracts"][q],
-                               "small_scale": SIZES["contracts-small"][q], "modes": measure.MODES,
-                               "ratios": measure.modes(kinds, w, data, small, repeat, say)}
+        report["contracts"] = {
+            "workload": w.name,
+            "scale": SIZES["contracts"][q],
+            "small_scale": SIZES["contracts-small"][q],
+            "modes": measure.MODES,
+            "ratios": measure.modes(kinds, w, data, small, repeat, say),
+        }
     if "concurrency" in wanted:
         report["concurrency"] = concurrency.producer_consumer(
-            SIZES["concurrency"][q], {k: v for k, v in kinds.items() if not getattr(v, "MONOTONE", False)},
-            repeat, progress=say)
+            SIZES["concurrency"][q],
+            {k: v for k, v in kinds.items() if not getattr(v, "MONOTONE", False)},
+            repeat,
+            progress=say,
+        )
         failed = failed or not all(r["ok"] for r in report["concurrency"]["kinds"].values())
     advice = suggestion(report["workloads"])
     report["suggested_default"], report["suggestion"] = advice.best, advice.line
@@ -250,23 +286,34 @@ def render(report: Mapping[str, Any]) -> str:
             rows = {name: r for name, r in wl.items() if r.get(col) is not None}
             if not rows:
                 continue
-            out += ["", f"kind / {title}", "workload".ljust(17) + "base s".rjust(9)
-                    + "".join(k.rjust(width) for k in kinds) + "  fastest"]
+            out += [
+                "",
+                f"kind / {title}",
+                "workload".ljust(17) + "base s".rjust(9) + "".join(k.rjust(width) for k in kinds) + "  fastest",
+            ]
             for name, r in rows.items():
                 cells = []
                 for k in kinds:
                     c = r["kinds"].get(k)
                     cells.append(_cell(None if c is None else (c[ratio] if c["ok"] else "WRONG"), width))
-                out.append(name.ljust(17) + _cell(r[col], 9, ".3f") + "".join(cells)
-                           + "  " + (r["fastest"] or "no clear winner"))
+                out.append(
+                    name.ljust(17)
+                    + _cell(r[col], 9, ".3f")
+                    + "".join(cells)
+                    + "  "
+                    + (r["fastest"] or "no clear winner")
+                )
         out.append("  (- : the kind cannot take these keys; WRONG: result differs from the idiom's;")
         out.append("   the tuple idiom has no table row where it cannot re-prioritise up or cancel)")
         for name, r in wl.items():
             out.append(f"  {name}: {r['what']}")
     if "comparisons" in report:
         c = report["comparisons"]
-        out += ["", f"key comparisons, n = {c['n']} pushes then pops of random keys, per log2(n!) = "
-                f"{c['log2_factorial']:.0f} (sorting lower bound, Knuth TAOCP 3, 5.3.1)"]
+        out += [
+            "",
+            f"key comparisons, n = {c['n']} pushes then pops of random keys, per log2(n!) = "
+            f"{c['log2_factorial']:.0f} (sorting lower bound, Knuth TAOCP 3, 5.3.1)",
+        ]
         out.append("  " + "  ".join(f"{k} {v:.3f}" for k, v in c["per_log2_factorial"].items()))
     if "memory" in report:
         m = report["memory"]
@@ -278,13 +325,15 @@ def render(report: Mapping[str, Any]) -> str:
         out += ["", "ns per operation, n pushes then n pops of random keys, as n grows"]
         out.append("  " + "kind".ljust(14) + "".join(f"n={n:,}".rjust(14) for n in sizes) + "    last/first")
         for k, vals in g["ns_per_op"].items():
-            out.append("  " + k.ljust(14) + "".join(f"{v:14.0f}" for v in vals)
-                       + f"{vals[-1] / vals[0]:14.2f}")
+            out.append("  " + k.ljust(14) + "".join(f"{v:14.0f}" for v in vals) + f"{vals[-1] / vals[0]:14.2f}")
     if "contracts" in report:
         c = report["contracts"]
         modes = list(c["modes"])
-        out += ["", f"contract modes on {c['workload']}: time / same kind's plain heap (scale "
-                f"{c['scale']}; checked and audited at {c['small_scale']})"]
+        out += [
+            "",
+            f"contract modes on {c['workload']}: time / same kind's plain heap (scale "
+            f"{c['scale']}; checked and audited at {c['small_scale']})",
+        ]
         out.append("  " + "kind".ljust(14) + "".join(m.rjust(10) for m in modes))
         for k, row in c["ratios"].items():
             out.append("  " + k.ljust(14) + "".join(_cell(row.get(m), 10) for m in modes))
@@ -293,8 +342,11 @@ def render(report: Mapping[str, Any]) -> str:
     if "concurrency" in report:
         out += concurrency.render(report["concurrency"])
     if wl:
-        out += ["", "fastest kind per workload (one rule for demo, replay and bench: the lowest median wins "
-                "only if every repeat beat every other kind's; ratios to the docs idiom):"]
+        out += [
+            "",
+            "fastest kind per workload (one rule for demo, replay and bench: the lowest median wins "
+            "only if every repeat beat every other kind's; ratios to the docs idiom):",
+        ]
         for name, r in wl.items():
             line = f"  {name}: {r['verdict']}"
             f = r["fastest"]

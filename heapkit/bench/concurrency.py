@@ -69,8 +69,13 @@ def _heapkit_run(kind: type, keys: list[int], producers: int, consumers: int) ->
     return sorted(k for part in got for k in part)
 
 
-def _threads(keys: list[int], producers: int, consumers: int,
-             produce: Callable[[list[int]], None], consume: Callable[[int, int], None]) -> None:
+def _threads(
+    keys: list[int],
+    producers: int,
+    consumers: int,
+    produce: Callable[[list[int]], None],
+    consume: Callable[[int, int], None],
+) -> None:
     n = len(keys)
     shares = [n // consumers + (j < n % consumers) for j in range(consumers)]
     threads = [threading.Thread(target=produce, args=(keys[p::producers],)) for p in range(producers)]
@@ -92,8 +97,16 @@ def _timed(fn: Callable[[], list[int]]) -> tuple[float, float, list[int]]:
         gc.enable()
 
 
-def producer_consumer(n: int, kinds: Mapping[str, type], repeat: int, *, producers: int = 2,
-                      consumers: int = 2, seed: int = 3, progress: Progress = _quiet) -> dict[str, Any]:
+def producer_consumer(
+    n: int,
+    kinds: Mapping[str, type],
+    repeat: int,
+    *,
+    producers: int = 2,
+    consumers: int = 2,
+    seed: int = 3,
+    progress: Progress = _quiet,
+) -> dict[str, Any]:
     """Ratios heapkit.blocking / queue.PriorityQueue, CPU and wall; O(repeat * n log n).
 
     Returns ``{"n", "producers", "consumers", "stdlib_cpu_s", "stdlib_wall_s",
@@ -136,11 +149,21 @@ def producer_consumer(n: int, kinds: Mapping[str, type], repeat: int, *, produce
             wall_s.append(kw)
             cpu_r.append(kc / bc if bc > 0 else float("inf"))
             wall_r.append(kw / bw if bw > 0 else float("inf"))
-        rows[name] = {"cpu_ratio": statistics.median(cpu_r), "wall_ratio": statistics.median(wall_r),
-                      "cpu_s": statistics.median(cpu_s), "wall_s": statistics.median(wall_s), "ok": ok}
-    return {"n": n, "producers": producers, "consumers": consumers,
-            "stdlib_cpu_s": statistics.median(base_cpu) if base_cpu else None,
-            "stdlib_wall_s": statistics.median(base_wall) if base_wall else None, "kinds": rows}
+        rows[name] = {
+            "cpu_ratio": statistics.median(cpu_r),
+            "wall_ratio": statistics.median(wall_r),
+            "cpu_s": statistics.median(cpu_s),
+            "wall_s": statistics.median(wall_s),
+            "ok": ok,
+        }
+    return {
+        "n": n,
+        "producers": producers,
+        "consumers": consumers,
+        "stdlib_cpu_s": statistics.median(base_cpu) if base_cpu else None,
+        "stdlib_wall_s": statistics.median(base_wall) if base_wall else None,
+        "kinds": rows,
+    }
 
 
 def _keys(n: int, seed: int) -> list[int]:
@@ -155,10 +178,13 @@ def render(report: Mapping[str, Any]) -> list[str]:
     ...         "kinds": {"lazy": {"cpu_ratio": 0.5, "wall_ratio": 0.6, "ok": True}}})[-1]
     '  lazy                0.50       0.60'
     """
-    out = ["", f"concurrency: blocking(kind) / queue.PriorityQueue, n = {report['n']} entries, "
-           f"{report['producers']} producer and {report['consumers']} consumer threads "
-           f"(stdlib: {report['stdlib_cpu_s']:.3f} s CPU, {report['stdlib_wall_s']:.3f} s wall)",
-           "  kind".ljust(16) + "CPU ratio".rjust(10) + "wall ratio".rjust(11)]
+    out = [
+        "",
+        f"concurrency: blocking(kind) / queue.PriorityQueue, n = {report['n']} entries, "
+        f"{report['producers']} producer and {report['consumers']} consumer threads "
+        f"(stdlib: {report['stdlib_cpu_s']:.3f} s CPU, {report['stdlib_wall_s']:.3f} s wall)",
+        "  kind".ljust(16) + "CPU ratio".rjust(10) + "wall ratio".rjust(11),
+    ]
     for k, row in report["kinds"].items():
         if not row["ok"]:
             out.append(f"  {k}".ljust(16) + "WRONG".rjust(9))

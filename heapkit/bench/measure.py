@@ -327,9 +327,7 @@ def bytes_per_entry(kinds: Mapping[str, type], n: int) -> dict[str, float]:
     return out
 
 
-def growth(
-    kinds: Mapping[str, type], sizes: list[int], progress: Progress = _quiet
-) -> dict[str, list[float]]:
+def growth(kinds: Mapping[str, type], sizes: list[int], progress: Progress = _quiet) -> dict[str, list[float]]:
     """Nanoseconds per operation for n pushes then n pops of random keys, at each
     size (the best of a few runs; one run above 10^5), for the idiom and each kind.
 

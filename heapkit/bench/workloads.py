@@ -62,6 +62,7 @@ class Workload:
 
 # --- runners on heapkit heaps --------------------------------------------------------
 
+
 def dijkstra(factory: Factory, adj: Adjacency, src: int, zero: float) -> list[float]:
     """Shortest distances from ``src`` with handles: push once, then decrease_key.
 
@@ -185,6 +186,7 @@ def hold(factory: Factory, keys: list[float], incs: list[float]) -> list[float]:
 
 # --- data ----------------------------------------------------------------------------
 
+
 def _scaled(full: int, scale: float, least: int) -> int:
     return max(least, int(full * scale))
 
@@ -251,8 +253,10 @@ def _costly_data(scale: float) -> list[tuple[ShelfKey, int]]:
     sites = ("North-Depot", "south-depot", "EAST-DEPOT")
     seen: dict[tuple[str, ...], str] = {}
     while len(seen) < n:
-        label = (f"{rng.choice(sites)}/{rng.choice(('Aisle', 'aisle'))}-{rng.randrange(40):02d}/"
-                 f"bin-{rng.randrange(400):03d}/Lot-{rng.randrange(10**6):06d}")
+        label = (
+            f"{rng.choice(sites)}/{rng.choice(('Aisle', 'aisle'))}-{rng.randrange(40):02d}/"
+            f"bin-{rng.randrange(400):03d}/Lot-{rng.randrange(10**6):06d}"
+        )
         seen.setdefault(tuple(label.casefold().split("/")), label)
     labels = [seen[f] for f in sorted(seen)]
     rng.shuffle(labels)
@@ -372,18 +376,28 @@ def _grid(scale: float) -> tuple[Adjacency, int, float]:
 
 def _dijkstra_row(name: str, what: str, make: Callable[[float], Any], monotone_ok: bool) -> Workload:
     return Workload(
-        name, what, make,
+        name,
+        what,
+        make,
         run=lambda f, d: dijkstra(f, *d),
         baseline=lambda d: idiom.dijkstra(*d),
-        same=_equal, monotone_ok=monotone_ok, decrease_key=True,
+        same=_equal,
+        monotone_ok=monotone_ok,
+        decrease_key=True,
         tuples=lambda d: tuples.dijkstra(*d),
     )
 
 
 def _sort_row(shape: str) -> Workload:
     return Workload(
-        f"sort-{shape}", f"n pushes then n pops, {shape} int keys (n = 1e5)", _sort_data(shape),
-        run=sort, baseline=idiom.sort, same=_same_pops, monotone_ok=True, tuples=tuples.sort,
+        f"sort-{shape}",
+        f"n pushes then n pops, {shape} int keys (n = 1e5)",
+        _sort_data(shape),
+        run=sort,
+        baseline=idiom.sort,
+        same=_same_pops,
+        monotone_ok=True,
+        tuples=tuples.sort,
     )
 
 
@@ -391,28 +405,47 @@ def _sort_row(shape: str) -> Workload:
 WORKLOADS: dict[str, Workload] = {
     w.name: w
     for w in [
-        _dijkstra_row("dijkstra-sparse", "Dijkstra, random graph n = 1e5, m = 5e5, float weights",
-                      _sparse(False), False),
+        _dijkstra_row(
+            "dijkstra-sparse", "Dijkstra, random graph n = 1e5, m = 5e5, float weights", _sparse(False), False
+        ),
         _dijkstra_row("dijkstra-grid", "Dijkstra, 400 x 400 grid, float weights", _grid, False),
-        _dijkstra_row("dijkstra-int", "Dijkstra, random graph n = 1e5, m = 5e5, int weights 1..100",
-                      _sparse(True), True),
+        _dijkstra_row(
+            "dijkstra-int", "Dijkstra, random graph n = 1e5, m = 5e5, int weights 1..100", _sparse(True), True
+        ),
         *(_sort_row(s) for s in ("random", "sorted", "reversed", "equal")),
         Workload(
-            "sort-costly", "n pushes then n pops, keys whose < folds and splits labels (n = 5e4)",
-            _costly_data, run=sort, baseline=idiom.sort, same=_same_pops, tuples=tuples.sort,
+            "sort-costly",
+            "n pushes then n pops, keys whose < folds and splits labels (n = 5e4)",
+            _costly_data,
+            run=sort,
+            baseline=idiom.sort,
+            same=_same_pops,
+            tuples=tuples.sort,
         ),
         Workload(
-            "scheduler", "dispatcher: 40% push, 30% pop, 20% decrease_key, 10% remove (5e4 + 2e5 ops)",
-            scheduler_data, run=lambda f, d: scheduler(f, *d), baseline=lambda d: idiom.scheduler(*d),
-            same=_equal, decrease_key=True,
+            "scheduler",
+            "dispatcher: 40% push, 30% pop, 20% decrease_key, 10% remove (5e4 + 2e5 ops)",
+            scheduler_data,
+            run=lambda f, d: scheduler(f, *d),
+            baseline=lambda d: idiom.scheduler(*d),
+            same=_equal,
+            decrease_key=True,
         ),
         Workload(
-            "meld", "32768 heaps of 4 melded pairwise into one, then n/4 pops", _meld_data,
-            run=lambda f, d: meld(f, *d), baseline=lambda d: idiom.meld(*d), same=_equal,
+            "meld",
+            "32768 heaps of 4 melded pairwise into one, then n/4 pops",
+            _meld_data,
+            run=lambda f, d: meld(f, *d),
+            baseline=lambda d: idiom.meld(*d),
+            same=_equal,
         ),
         Workload(
-            "hold", "discrete-event hold model: 1e5 events, 3e5 pop + push-later", _hold_data,
-            run=lambda f, d: hold(f, *d), baseline=lambda d: idiom.hold(*d), same=_equal,
+            "hold",
+            "discrete-event hold model: 1e5 events, 3e5 pop + push-later",
+            _hold_data,
+            run=lambda f, d: hold(f, *d),
+            baseline=lambda d: idiom.hold(*d),
+            same=_equal,
             tuples=lambda d: tuples.hold(*d),
         ),
     ]

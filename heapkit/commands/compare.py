@@ -320,8 +320,10 @@ def render(rows: Sequence[Row]) -> str:
     saw, in the kind's own cost unit (listed under the table: not comparable
     across kinds).
     """
-    head = (f"{'kind':<14}{'ms':>9}{'spread':>8}{'x fastest':>11}{'compares':>11}  "
-            f"{'worst op (own unit*)':<24}{'check':<9}audit")
+    head = (
+        f"{'kind':<14}{'ms':>9}{'spread':>8}{'x fastest':>11}{'compares':>11}  "
+        f"{'worst op (own unit*)':<24}{'check':<9}audit"
+    )
     lines = [head, "-" * len(head)]
     notes, units = [], []
     for r in rows:
@@ -343,8 +345,13 @@ def render(rows: Sequence[Row]) -> str:
             if verdict_.startswith("FAILED"):
                 notes.append(f"  {r.kind} {what} {verdict_}")
     if units:
-        lines.extend(["", "* cost units (each kind counts its own work; compare a kind with its bound, "
-                      "not with another kind):", *units])
+        lines.extend(
+            [
+                "",
+                "* cost units (each kind counts its own work; compare a kind with its bound, not with another kind):",
+                *units,
+            ]
+        )
     if notes:
         lines.extend(["", "failures:", *notes])
     lines.extend(["", verdict(rows).line])
@@ -354,6 +361,12 @@ def render(rows: Sequence[Row]) -> str:
 def as_json(rows: Sequence[Row]) -> str:
     """The rows and the recommendation as JSON text."""
     v = verdict(rows)
-    data = [{**asdict(r), "seconds": None if r.seconds == float("inf") else r.seconds,
-             "ratio": None if r.ratio == float("inf") else r.ratio} for r in rows]
+    data = [
+        {
+            **asdict(r),
+            "seconds": None if r.seconds == float("inf") else r.seconds,
+            "ratio": None if r.ratio == float("inf") else r.ratio,
+        }
+        for r in rows
+    ]
     return json.dumps({"rows": data, "recommended": v.best, "recommendation": v.line}, indent=2)

@@ -25,11 +25,13 @@ def add_parser(sub: argparse._SubParsersAction) -> None:  # type: ignore[type-ar
         description=plain(__doc__),
     )
     add_kinds(p)
-    p.add_argument("--jobs", type=int, default=4000,
-                   help=f"parcel jobs in the scenario, 1 to {MAX_JOBS} (default 4000)")
+    p.add_argument(
+        "--jobs", type=int, default=4000, help=f"parcel jobs in the scenario, 1 to {MAX_JOBS} (default 4000)"
+    )
     p.add_argument("--json", action="store_true", help="print the results as JSON")
-    p.add_argument("--keep", metavar="PATH",
-                   help="also keep the scenario's trace at PATH (a regular file or a new one)")
+    p.add_argument(
+        "--keep", metavar="PATH", help="also keep the scenario's trace at PATH (a regular file or a new one)"
+    )
     p.set_defaults(run=run)
 
 

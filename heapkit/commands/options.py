@@ -38,7 +38,9 @@ def plain(doc: str | None) -> str:
 def add_kinds(p: argparse.ArgumentParser) -> None:
     """Add ``--kinds`` (comma-separated; spaces are accepted too)."""
     p.add_argument(
-        "--kinds", nargs="+", metavar="KINDS",
+        "--kinds",
+        nargs="+",
+        metavar="KINDS",
         help=f"kinds to run, comma-separated (default: all): {','.join(sorted(heapkit.KINDS))}",
     )
 
@@ -98,8 +100,10 @@ class Output:
         if stat.S_ISDIR(st.st_mode):
             raise UsageError(f"{self.option} {self.path!r} is a directory")
         if not stat.S_ISREG(st.st_mode):
-            raise UsageError(f"{self.option} {self.path!r} is not a regular file; heapkit replaces only "
-                             "a regular file or writes a new one")
+            raise UsageError(
+                f"{self.option} {self.path!r} is not a regular file; heapkit replaces only "
+                "a regular file or writes a new one"
+            )
         if not os.access(self.target, os.W_OK):
             raise UsageError(f"{self.option} {self.path!r} is not writable")
         return stat.S_IMODE(st.st_mode)

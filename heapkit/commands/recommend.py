@@ -48,14 +48,19 @@ def recommend(samples: Mapping[str, Sequence[float]], fmt: Callable[[float], str
         return Recommendation(best, f"recommended: {best} (the only candidate)")
     repeats = min(len(v) for v in cands.values())
     if repeats < 2:
-        return Recommendation(None, f"no clear winner: one repeat shows no spread (lowest: "
-                              f"{_said(best, cands[best], fmt)}); use 3 or more repeats")
+        return Recommendation(
+            None,
+            f"no clear winner: one repeat shows no spread (lowest: "
+            f"{_said(best, cands[best], fmt)}); use 3 or more repeats",
+        )
     close = [k for k in ranked[1:] if min(cands[k]) <= max(cands[best])]
     if close:
         names = " and ".join(_said(k, cands[k], fmt) for k in [best, *close[:2]])
         more = f" (and {len(close) - 2} more)" if len(close) > 2 else ""
-        return Recommendation(None, f"no clear winner: {names}{more} overlap "
-                              f"(medians of {repeats} repeats)")
+        return Recommendation(None, f"no clear winner: {names}{more} overlap (medians of {repeats} repeats)")
     nxt = ranked[1]
-    return Recommendation(best, f"recommended: {_said(best, cands[best], fmt)}, every repeat ahead of the next, "
-                          f"{_said(nxt, cands[nxt], fmt)} (medians of {repeats} repeats)")
+    return Recommendation(
+        best,
+        f"recommended: {_said(best, cands[best], fmt)}, every repeat ahead of the next, "
+        f"{_said(nxt, cands[nxt], fmt)} (medians of {repeats} repeats)",
+    )

@@ -20,7 +20,9 @@ from heapkit.commands.options import Output, UsageError, add_kinds, chosen_kinds
 
 def add_parser(sub: argparse._SubParsersAction) -> None:  # type: ignore[type-arg]
     p = sub.add_parser(
-        "replay", help="replay a JSON Lines trace on several kinds and compare", description=plain(__doc__),
+        "replay",
+        help="replay a JSON Lines trace on several kinds and compare",
+        description=plain(__doc__),
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
     p.add_argument("trace", help="the trace file (JSON Lines, one operation per line; a pipe works too)")
@@ -28,8 +30,11 @@ def add_parser(sub: argparse._SubParsersAction) -> None:  # type: ignore[type-ar
     p.add_argument("--check", action="store_true", help="replay in checked mode and compare each pop with the trace")
     p.add_argument("--audit", action="store_true", help="audit the amortized bounds during the replay")
     p.add_argument("--repeat", type=int, default=3, help="timed replays per kind (default 3)")
-    p.add_argument("--dot", metavar="PATH",
-                   help="write the final shape (first queue, first named kind that can replay it) as Graphviz DOT")
+    p.add_argument(
+        "--dot",
+        metavar="PATH",
+        help="write the final shape (first queue, first named kind that can replay it) as Graphviz DOT",
+    )
     p.add_argument("--json", action="store_true", help="print the results as JSON")
     p.set_defaults(run=run)
 

@@ -124,4 +124,3 @@ def asynchronous(heap: Heap[K, V]) -> Asynchronous[K, V]:
     1
     """
     return Asynchronous(heap)
-

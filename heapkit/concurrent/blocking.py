@@ -56,8 +56,14 @@ class Blocking(Wrapper[K, V]):
 
     __slots__ = ("_due", "capacity", "clock")
 
-    def __init__(self, heap: Heap[K, V], *, capacity: int | None = None,
-                 due: bool | Callable[[K], Any] = False, clock: Clock = SYSTEM) -> None:
+    def __init__(
+        self,
+        heap: Heap[K, V],
+        *,
+        capacity: int | None = None,
+        due: bool | Callable[[K], Any] = False,
+        clock: Clock = SYSTEM,
+    ) -> None:
         if capacity is not None and (type(capacity) is not int or capacity < 1):
             raise ValueError(f"blocking: capacity must be None or an int >= 1, got {capacity!r}")
         if not (isinstance(due, bool) or callable(due)):
@@ -234,8 +240,9 @@ class Blocking(Wrapper[K, V]):
             return self._take()
 
 
-def blocking(heap: Heap[K, V], *, capacity: int | None = None,
-             due: bool | Callable[[K], Any] = False, clock: Clock = SYSTEM) -> Blocking[K, V]:
+def blocking(
+    heap: Heap[K, V], *, capacity: int | None = None, due: bool | Callable[[K], Any] = False, clock: Clock = SYSTEM
+) -> Blocking[K, V]:
     """Wrap ``heap`` as a thread-safe queue whose ``pop`` waits; O(1).  See :class:`Blocking`.
 
     >>> from heapkit import PairingHeap

@@ -22,9 +22,26 @@ class State:
     """Checked mode's per-heap state, kept in ``heap._ext["checked"]``."""
 
     __slots__ = (
-        "base", "busy", "count", "due", "every", "force", "full", "full_every", "history", "labels",
-        "local", "next_label", "record", "replaced", "since_full", "size_at_full", "subject",
-        "touched", "ver", "ver_before",
+        "base",
+        "busy",
+        "count",
+        "due",
+        "every",
+        "force",
+        "full",
+        "full_every",
+        "history",
+        "labels",
+        "local",
+        "next_label",
+        "record",
+        "replaced",
+        "since_full",
+        "size_at_full",
+        "subject",
+        "touched",
+        "ver",
+        "ver_before",
     )
 
     def __init__(self, replaced: type, every: int, history: int, full_every: int | None) -> None:

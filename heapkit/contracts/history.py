@@ -77,8 +77,12 @@ def _opening(history: list[Entry], known: set[int]) -> tuple[list[Entry], list[t
 
 
 def run(
-    history: list[Entry], target: Target, check: Callable[..., Any], *,
-    start: tuple[tuple[Any, int], ...] = (), every: int = 1,
+    history: list[Entry],
+    target: Target,
+    check: Callable[..., Any],
+    *,
+    start: tuple[tuple[Any, int], ...] = (),
+    every: int = 1,
 ) -> Any:
     """Run ``history`` on a fresh heap from ``target`` put in checked mode by ``check``
     (``heapkit.checked``, handed in by its caller so this module never imports the
@@ -155,9 +159,14 @@ class HistoryError(InvariantError):
     """
 
     def __init__(
-        self, message: str, problems: tuple[str, ...], rules: tuple[str, ...],
-        history: list[Entry], factory: Callable[[], Any],
-        start: tuple[tuple[Any, int], ...] = (), record: list[Entry] | None = None,
+        self,
+        message: str,
+        problems: tuple[str, ...],
+        rules: tuple[str, ...],
+        history: list[Entry],
+        factory: Callable[[], Any],
+        start: tuple[tuple[Any, int], ...] = (),
+        record: list[Entry] | None = None,
     ) -> None:
         super().__init__(message, problems)
         self.rules: tuple[str, ...] = rules
@@ -185,7 +194,8 @@ class HistoryError(InvariantError):
             warnings.warn(
                 "the replay ran clean: the failure was likely caused by a key changed in place, "
                 "and the record holds the key objects as they are now, so it cannot reproduce it",
-                RuntimeWarning, stacklevel=2,
+                RuntimeWarning,
+                stacklevel=2,
             )
         return heap
 
@@ -221,8 +231,13 @@ def failure(h: Any, st: Any, report: Report, check: Callable[..., Any]) -> Histo
     if mutated:
         text += MUTATED_HINT
     err = HistoryError(
-        text, tuple(report.problems), tuple(report.rules), list(st.history),
-        lambda: cls(stable=stable, **opts), st.base, list(st.record),
+        text,
+        tuple(report.problems),
+        tuple(report.rules),
+        list(st.history),
+        lambda: cls(stable=stable, **opts),
+        st.base,
+        list(st.record),
     )
     err.likely_mutated = mutated
     err._check = check

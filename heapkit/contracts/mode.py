@@ -86,8 +86,7 @@ def checked(heap: H, *, every: int = 1, history: int = 64, full_every: int | Non
     """
     if not isinstance(heap, HeapBase):
         raise TypeError(
-            f"checked: expected a heapkit heap, got {type(heap).__name__}; "
-            "call heapkit.check on your own queue instead"
+            f"checked: expected a heapkit heap, got {type(heap).__name__}; call heapkit.check on your own queue instead"
         )
     _positive("every", every)
     _positive("history", history)
@@ -149,10 +148,17 @@ def _layered(h: Any) -> bool:
 def _layer(cls: type) -> type:
     sub = _LAYERS.get(cls)
     if sub is None:
-        sub = type(cls.__name__, (_Checking, cls), {
-            "__slots__": (), "_layer": MODE, "__module__": cls.__module__,
-            "__qualname__": cls.__qualname__, "__doc__": cls.__doc__,
-        })
+        sub = type(
+            cls.__name__,
+            (_Checking, cls),
+            {
+                "__slots__": (),
+                "_layer": MODE,
+                "__module__": cls.__module__,
+                "__qualname__": cls.__qualname__,
+                "__doc__": cls.__doc__,
+            },
+        )
         _LAYERS[cls] = sub
     return sub
 

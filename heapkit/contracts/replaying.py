@@ -15,9 +15,7 @@ from heapkit.contracts.mode import checked
 __all__ = ["replay"]
 
 
-def replay(
-    history: list[Entry], target: Target, *, start: tuple[tuple[Any, int], ...] = (), every: int = 1
-) -> Any:
+def replay(history: list[Entry], target: Target, *, start: tuple[tuple[Any, int], ...] = (), every: int = 1) -> Any:
     """Run ``history`` on a fresh heap from ``target``, checked; return the heap.
 
     ``target``: a name in ``heapkit.KINDS``, a heap class or a factory;

@@ -174,7 +174,11 @@ def _check_protocol(heap: Any) -> Shape:
     if report.problems:
         raise report.error(heap)
     return Shape(
-        kind=type(heap).__name__, size=n, roots=1 if n else 0, height=0, max_degree=0,
+        kind=type(heap).__name__,
+        size=n,
+        roots=1 if n else 0,
+        height=0,
+        max_degree=0,
         details={"checked": "protocol only" if seen else "len, bool and peek only (the queue is not iterable)"},
     )
 

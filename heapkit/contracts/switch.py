@@ -112,8 +112,12 @@ def _apply(modes: list[tuple[str, int]], source: str) -> None:
     MODES[:] = modes
     _core.on_new = _on_new if modes else None
     if modes:
-        _log.warning("%s: %s %s on for every heap made from now on (slower; for tests and staging)",
-                     source, describe(modes), "is" if len(modes) == 1 else "are")
+        _log.warning(
+            "%s: %s %s on for every heap made from now on (slower; for tests and staging)",
+            source,
+            describe(modes),
+            "is" if len(modes) == 1 else "are",
+        )
 
 
 def set_debug(text: str) -> list[tuple[str, int]]:
@@ -131,9 +135,7 @@ def set_debug(text: str) -> list[tuple[str, int]]:
         raise TypeError(f"set_debug: expected a string like 'check:10,audit', got {text!r}")
     modes, bad = parse(text)
     if bad:
-        raise ValueError(
-            f"set_debug({text!r}): unknown value {bad[0]!r}{_hint(bad[0])}; accepted: {ACCEPTED}"
-        )
+        raise ValueError(f"set_debug({text!r}): unknown value {bad[0]!r}{_hint(bad[0])}; accepted: {ACCEPTED}")
     _apply(modes, f"heapkit.set_debug({text!r})")
     return list(MODES)
 
@@ -142,8 +144,7 @@ def _from_environment() -> None:
     text = os.environ.get("HEAPKIT_DEBUG", "")
     modes, bad = parse(text)
     for part in bad:
-        _log.warning("HEAPKIT_DEBUG=%r: ignoring unknown value %r%s; accepted: %s",
-                     text, part, _hint(part), ACCEPTED)
+        _log.warning("HEAPKIT_DEBUG=%r: ignoring unknown value %r%s; accepted: %s", text, part, _hint(part), ACCEPTED)
     _apply(modes, f"HEAPKIT_DEBUG={text!r}")
 
 

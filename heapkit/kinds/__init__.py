@@ -67,6 +67,7 @@ V = TypeVar("V")
 RK = TypeVar("RK", bound=int)
 Pairs: TypeAlias = Iterable[tuple[K, V]]
 
+
 # One overload per kind: a literal name gives the concrete class (adding a kind: one line here,
 # its name in ``KindName`` and its class in ``KINDS``); the last overload takes any str.
 # fmt: off
@@ -95,8 +96,9 @@ def new(kind: str = ..., pairs: Pairs[K, V] = (), *, stable: bool = False, **opt
 # fmt: on
 
 
-def new(kind: str | None = None, pairs: Iterable[tuple[Any, Any]] = (), *, stable: bool = False,
-        **options: object) -> Heap[Any, Any]:
+def new(
+    kind: str | None = None, pairs: Iterable[tuple[Any, Any]] = (), *, stable: bool = False, **options: object
+) -> Heap[Any, Any]:
     """Make a heap of the kind called ``kind`` (``DEFAULT`` when omitted) holding ``pairs``.  O(len(pairs)).
 
     Kinds (``KINDS``): ``binary``, ``binomial``, ``dary``, ``fibonacci``, ``hollow``,

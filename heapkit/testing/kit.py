@@ -48,9 +48,9 @@ def _same(a: Any, b: Any) -> bool:
 _FIX = {
     "pop": "adapt(q, pop=lambda q: ...) returning a (key, value) pair and raising IndexError when empty",
     "peek": "adapt(q, peek=lambda q: ...) returning a handle with .key or a (key, value) pair, "
-            "raising IndexError when empty; or leave peek out with peek=False",
+    "raising IndexError when empty; or leave peek out with peek=False",
     "remove": "adapt(q, remove=lambda q, handle: ...) raising ValueError for a dead handle; "
-              "or leave remove out with remove=False",
+    "or leave remove out with remove=False",
 }
 
 
@@ -111,7 +111,7 @@ class _Base(RuleBasedStateMachine):
         except kind:
             return
         except Exception as exc:
-                self.fail(f"`{line}` raised {type(exc).__name__}, expected {kind.__name__}{self._fix(line)}")
+            self.fail(f"`{line}` raised {type(exc).__name__}, expected {kind.__name__}{self._fix(line)}")
         self.fail(f"`{line}` returned normally, expected {kind.__name__}{self._fix(line)}")
 
     @staticmethod
@@ -128,8 +128,9 @@ class _Base(RuleBasedStateMachine):
         self.count += 1
         value = f"v{self.count}"
         name = f"x{self.count}"
-        handle = self._call(f"{name} = {self.qname(w)}.push({key!r}, {value!r})",
-                            lambda: self.queues[w].push(key, value))
+        handle = self._call(
+            f"{name} = {self.qname(w)}.push({key!r}, {value!r})", lambda: self.queues[w].push(key, value)
+        )
         entry = (name, handle, self.refs[w].push(key, value))
         self.entries.append(entry)
         self.by_value[value] = entry
@@ -144,13 +145,17 @@ class _Base(RuleBasedStateMachine):
             self.fail(f"pop returned {got!r}, but the peek just before it named {named!r}")
         want = ref.peek()
         if not isinstance(got, tuple) or len(got) != 2:
-            self.fail(f"pop returned {got!r}, expected a (key, value) pair like {(want.key, want.value)!r}; "
-                      f"to fix: {_FIX['pop']}")
+            self.fail(
+                f"pop returned {got!r}, expected a (key, value) pair like {(want.key, want.value)!r}; "
+                f"to fix: {_FIX['pop']}"
+            )
         key, value = got
         if self.stable:
             if (key, value) != (want.key, want.value):
-                self.fail(f"pop returned {got!r}, expected {(want.key, want.value)!r} "
-                          "(the stable order: smallest key, earliest push among ties)")
+                self.fail(
+                    f"pop returned {got!r}, expected {(want.key, want.value)!r} "
+                    "(the stable order: smallest key, earliest push among ties)"
+                )
             ref.pop()
             return
         if value not in self.by_value or self.by_value[value][2] not in ref:
@@ -167,8 +172,9 @@ class _Base(RuleBasedStateMachine):
         got = self._call(f"{self.qname(w)}.peek()", q.peek)
         key = _key_of(got)
         if key is _NO_KEY:
-            self.fail(f"peek returned {got!r}, which has no .key and is not a (key, value) pair; "
-                      f"to fix: {_FIX['peek']}")
+            self.fail(
+                f"peek returned {got!r}, which has no .key and is not a (key, value) pair; to fix: {_FIX['peek']}"
+            )
         if not _same(key, ref.peek().key):
             self.fail(f"peek gave key {key!r}, but {ref.peek().key!r} is the smallest")
 
@@ -178,8 +184,9 @@ class _Base(RuleBasedStateMachine):
             return
         got = self._call(f"{self.qname(w)}.peek()", self.queues[w].peek)
         if not isinstance(got, tuple) and _key_of(got) is _NO_KEY:
-            self.fail(f"peek returned {got!r}, which has no .key and is not a (key, value) pair; "
-                      f"to fix: {_FIX['peek']}")
+            self.fail(
+                f"peek returned {got!r}, which has no .key and is not a (key, value) pair; to fix: {_FIX['peek']}"
+            )
         self._pop(w, got if isinstance(got, tuple) else (got.key, getattr(got, "value", None)))
 
     def _live(self, data: st.DataObject) -> tuple[int, tuple[str, Any, Any]] | None:
@@ -270,8 +277,9 @@ def machine(
                 w, (name, handle, model) = picked
                 if model.key < key:
                     key = model.key  # a decrease to an equal key is legal and must be kept
-                self._call(f"{self.qname(w)}.decrease_key({name}, {key!r})",
-                           lambda: self.queues[w].decrease_key(handle, key))
+                self._call(
+                    f"{self.qname(w)}.decrease_key({name}, {key!r})", lambda: self.queues[w].decrease_key(handle, key)
+                )
                 self.refs[w].decrease_key(model, key)
 
         if has["change"]:
@@ -283,8 +291,9 @@ def machine(
                 if picked is None:
                     return
                 w, (name, handle, model) = picked
-                self._call(f"{self.qname(w)}.change_key({name}, {key!r})",
-                           lambda: self.queues[w].change_key(handle, key))
+                self._call(
+                    f"{self.qname(w)}.change_key({name}, {key!r})", lambda: self.queues[w].change_key(handle, key)
+                )
                 self.refs[w].change_key(model, key)
 
         if has["remove"]:
@@ -314,8 +323,9 @@ def machine(
             @rule(into=st.integers(0, 1))
             def meld(self, into: int) -> None:
                 src = 1 - into
-                self._call(f"{self.qname(into)}.meld({self.qname(src)})",
-                           lambda: self.queues[into].meld(self.queues[src]))
+                self._call(
+                    f"{self.qname(into)}.meld({self.qname(src)})", lambda: self.queues[into].meld(self.queues[src])
+                )
                 self.refs[into].meld(self.refs[src])
 
     QueueMachine.factory = staticmethod(factory)
@@ -352,8 +362,18 @@ def assert_conforms(
     >>> from heapkit import BinaryHeap
     >>> assert_conforms(BinaryHeap, max_examples=5)
     """
-    cls = machine(factory, decrease_key=decrease_key, change_key=change_key, remove=remove, meld=meld,
-                  stable=stable, keys=keys, peek=peek, max_examples=max_examples, settings=settings)
+    cls = machine(
+        factory,
+        decrease_key=decrease_key,
+        change_key=change_key,
+        remove=remove,
+        meld=meld,
+        stable=stable,
+        keys=keys,
+        peek=peek,
+        max_examples=max_examples,
+        settings=settings,
+    )
     try:
         run_state_machine_as_test(cls, settings=cls.TestCase.settings)
     except AssertionError as exc:

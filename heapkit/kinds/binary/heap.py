@@ -24,7 +24,8 @@ from __future__ import annotations
 from typing import Any, ClassVar, TypeVar
 
 from heapkit._core import empty_error, nan_error, upward_error
-from heapkit.kinds.dary.heap import DaryHeap, _Slot
+from heapkit.kinds.dary.heap import DaryHeap
+from heapkit.kinds.dary.slot import _Slot
 from heapkit.protocol import Handle
 
 __all__ = ["BinaryHeap"]

@@ -39,10 +39,8 @@ def layout_problem(heap: Any, handles: list[Any], layout: Any) -> str | None:
 
 RULES: dict[str, str] = {
     "heap-order": "no child is smaller than its parent",
-    "binomial-shape": "a degree-k node has children of degrees k-1..0 in order; "
-    "a degree-k tree has 2**k nodes",
-    "root-degrees": "roots[d] is None or a root of degree d (distinct, increasing); "
-    "the array ends in None",
+    "binomial-shape": "a degree-k node has children of degrees k-1..0 in order; a degree-k tree has 2**k nodes",
+    "root-degrees": "roots[d] is None or a root of degree d (distinct, increasing); the array ends in None",
     "links": "prev/next/child links agree; roots have no siblings; no node is reachable twice",
     "min": "the min pointer is a root and no root is smaller",
     "size": "the trees hold len(heap) nodes",
@@ -94,7 +92,9 @@ def survey(heap: Any, report: Any) -> dict[str, Any]:
         count += size
         if size != 1 << r._deg:
             report.fail(
-                "binomial-shape", r, path(r),
+                "binomial-shape",
+                r,
+                path(r),
                 f"a tree of degree {r._deg} holds {size} nodes, not {1 << r._deg}",
             )
     if count != n:
@@ -111,9 +111,7 @@ def survey(heap: Any, report: Any) -> dict[str, Any]:
 
 # Checks x's child list (links, degrees, heap order) and returns the
 # children; ``seen`` (when given) records each child once and refuses twice.
-def _family_check(
-    heap: Any, report: Any, x: Any, path: Any, seen: dict[int, tuple[Any, str]] | None
-) -> list[Any]:
+def _family_check(heap: Any, report: Any, x: Any, path: Any, seen: dict[int, tuple[Any, str]] | None) -> list[Any]:
     kids: list[Any] = []
     deg = x._deg
     prev = x
@@ -132,13 +130,13 @@ def _family_check(
             report.fail("links", c, path(c), "prev does not point back to its left sibling or parent")
         if c._deg != deg - 1 - i:
             report.fail(
-                "binomial-shape", c, path(c),
+                "binomial-shape",
+                c,
+                path(c),
                 f"child {i} of a degree-{deg} node has degree {c._deg}, not {deg - 1 - i}",
             )
         if c._k < x._k:
-            report.fail(
-                "heap-order", c, path(c), f"key {c._key!r} is smaller than its parent's {x._key!r}"
-            )
+            report.fail("heap-order", c, path(c), f"key {c._key!r} is smaller than its parent's {x._key!r}")
         kids.append(c)
         prev = c
         c = c._next
@@ -176,7 +174,9 @@ def _survey_roots(heap: Any, report: Any) -> None:
     for r in roots:
         if r is not None and r._k < mn._k:
             report.fail(
-                "min", r, [f"root of degree {r._deg}"],
+                "min",
+                r,
+                [f"root of degree {r._deg}"],
                 f"key {r._key!r} is smaller than the min pointer's {mn._key!r}",
             )
 

@@ -41,32 +41,20 @@ queues with update and finding minimum spanning trees", IPL 4 (1975) (d-ary).
 from __future__ import annotations
 
 from collections.abc import Callable, Iterable, Iterator
-from typing import Any, ClassVar, Generic, TypeVar
+from typing import Any, ClassVar, TypeVar
 
-from heapkit._core import HandleBase, HeapBase, empty_error, nan_error, upward_error
+from heapkit._core import HeapBase, empty_error, nan_error, upward_error
 from heapkit._face import HeapFace
 from heapkit.kinds.dary import bulk as _bulk
 from heapkit.kinds.dary import cost as _cost
 from heapkit.kinds.dary import rules as _rules
+from heapkit.kinds.dary.slot import _Slot
 from heapkit.protocol import Handle
 
 __all__ = ["DaryHeap"]
 
 K = TypeVar("K")
 V = TypeVar("V")
-
-
-class _Slot(HandleBase, Generic[K, V]):
-    """Handle of an array heap entry; ``_i`` is its position in the list."""
-
-    __slots__ = ("_i",)
-
-    def __init__(self, key: K, k: Any, value: V, tok: Any) -> None:
-        self._key = key
-        self._k = k
-        self.value = value
-        self._tok = tok
-        self._i = -1
 
 
 # The node class's __new__: object's when pure; a compiled HandleBase refuses object.__new__.
@@ -95,13 +83,11 @@ class DaryHeap(HeapFace[K, V], HeapBase):
     PHI_C: ClassVar[float] = _cost.PHI_C
     POTENTIAL: ClassVar[str] = _cost.POTENTIAL
 
-    _a: list[_Slot[K, V]]
+    _a: list[_Slot]
     _d: int
     _w: list[int]
 
-    def __init__(
-        self, pairs: Iterable[tuple[K, V]] = (), *, stable: bool = False, arity: int | None = None
-    ) -> None:
+    def __init__(self, pairs: Iterable[tuple[K, V]] = (), *, stable: bool = False, arity: int | None = None) -> None:
         d = self.DEFAULT_ARITY if arity is None else arity
         if not isinstance(d, int) or isinstance(d, bool) or d < 2:
             raise ValueError(f"arity must be an integer of at least 2, got {arity!r}")
@@ -448,7 +434,7 @@ class DaryHeap(HeapFace[K, V], HeapBase):
         if t:
             w[(t - 1) >> 1] = 0
 
-    def _handles(self) -> Iterator[_Slot[K, V]]:
+    def _handles(self) -> Iterator[_Slot]:
         return iter(self._a)
 
     def _export(self) -> tuple[list[Any], None]:

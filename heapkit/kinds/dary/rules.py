@@ -116,9 +116,7 @@ def _at(heap: Any, report: Any, a: Any, d: int, i: int) -> None:
     for c in range(lo, min(lo + d, len(a))):
         y = a[c]
         if y._k < xk:
-            report.fail(
-                "heap-order", y, path(heap, c), f"key {y._key!r} is smaller than its parent's {x._key!r}"
-            )
+            report.fail("heap-order", y, path(heap, c), f"key {y._key!r} is smaller than its parent's {x._key!r}")
 
 
 def dot_edges(heap: Any) -> Iterator[tuple[Any, Any, str]]:
@@ -166,7 +164,9 @@ def survey(heap: Any, report: Any) -> dict[str, Any]:
             p = a[(i - 1) // d]
             if x._k < p._k:
                 report.fail(
-                    "heap-order", x, path(heap, i),
+                    "heap-order",
+                    x,
+                    path(heap, i),
                     f"key {x._key!r} is smaller than its parent's {p._key!r}",
                 )
     if d == 4:

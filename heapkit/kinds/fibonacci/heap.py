@@ -53,6 +53,7 @@ __all__ = ["FibonacciHeap"]
 K = TypeVar("K")
 V = TypeVar("V")
 
+
 class _Node(HandleBase, Generic[K, V]):
     """Handle and tree node: ring links ``_left``/``_right``, ``_parent``, one
     ``_child`` of the child ring, ``_degree`` (children) and ``_mark``."""

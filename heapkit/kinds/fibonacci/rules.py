@@ -17,8 +17,7 @@ from heapkit.kinds.fibonacci.rings import _ring_list
 
 RULES: dict[str, str] = {
     "heap-order": "no child's key is smaller than its parent's",
-    "links": "rings closed and symmetric, child.parent is the parent, degree counts the children, "
-    "no node twice",
+    "links": "rings closed and symmetric, child.parent is the parent, degree counts the children, no node twice",
     "roots-unmarked": "no root carries a mark",
     "min": "the min pointer is a root and no root is smaller",
     "degree-size": "a node of degree d heads a subtree of at least F(d + 2) nodes",
@@ -105,8 +104,7 @@ def survey(heap: Any, report: Any) -> dict[str, Any]:
                 if m is not None and x._k < m._k:
                     report.fail("min", x, path(i), f"root key {x._key!r} is smaller than the min {m._key!r}")
             elif x._k < parent._k:
-                report.fail("heap-order", x, path(i),
-                            f"key {x._key!r} is smaller than its parent's {parent._key!r}")
+                report.fail("heap-order", x, path(i), f"key {x._key!r} is smaller than its parent's {parent._key!r}")
             if x._child is not None:
                 stack.append((x._child, i, depth + 1))
             elif x._degree != 0:
@@ -123,8 +121,9 @@ def survey(heap: Any, report: Any) -> dict[str, Any]:
     if count != n:
         report.fail("size", m, [], f"{count} nodes reachable but len is {n}")
     if heap._roots != roots or heap._marks != marked:
-        report.fail("counters", m, [], f"kept roots={heap._roots}, marks={heap._marks}; "
-                    f"found roots={roots}, marks={marked}")
+        report.fail(
+            "counters", m, [], f"kept roots={heap._roots}, marks={heap._marks}; found roots={roots}, marks={marked}"
+        )
     # degree-size: subtree sizes bottom-up, F by iteration F(1) = F(2) = 1.
     size = [1] * count
     for i in range(count - 1, -1, -1):
@@ -138,8 +137,9 @@ def survey(heap: Any, report: Any) -> dict[str, Any]:
             fib.append(fib[-1] + fib[-2])
         if size[i] < fib[d + 2]:
             need = f"F({d + 2}) = {fib[d + 2]}"
-            report.fail("degree-size", order[i], path(i),
-                        f"degree {d} but only {size[i]} nodes in its subtree (needs {need})")
+            report.fail(
+                "degree-size", order[i], path(i), f"degree {d} but only {size[i]} nodes in its subtree (needs {need})"
+            )
     return {
         "size": count,
         "roots": roots,
@@ -222,8 +222,7 @@ def survey_local(heap: Any, report: Any, nodes: list[Any], handle: Any) -> None:
             if x._k < m._k:
                 report.fail("min", x, _local_path(x, n), f"root key {x._key!r} is smaller than the min")
         elif x._k < p._k:
-            report.fail("heap-order", x, _local_path(x, n),
-                        f"key {x._key!r} is smaller than its parent's {p._key!r}")
+            report.fail("heap-order", x, _local_path(x, n), f"key {x._key!r} is smaller than its parent's {p._key!r}")
         c = x._child
         count = 0
         if c is not None:
@@ -233,8 +232,9 @@ def survey_local(heap: Any, report: Any, nodes: list[Any], handle: Any) -> None:
                 if y._parent is not x:
                     report.fail("links", y, [*_local_path(x, n), "child"], "its parent link is wrong")
                 if y._k < x._k:
-                    report.fail("heap-order", y, _local_path(y, n),
-                                f"key {y._key!r} is smaller than its parent's {x._key!r}")
+                    report.fail(
+                        "heap-order", y, _local_path(y, n), f"key {y._key!r} is smaller than its parent's {x._key!r}"
+                    )
                 y = y._right
                 if y is c:
                     break

@@ -52,7 +52,6 @@ def max_rank(n: int) -> int:
     return r
 
 
-
 # Precondition: x is the root (full).  Destroys x and every hollow node that
 # becomes a root, links the full roots (and ``extra``, a detached rank-0 node)
 # by rank, then unranked, and returns the new root.  If a comparison raises, x
@@ -137,6 +136,7 @@ def delete_root(heap: Any, x: Any, extra: Any) -> Any:
         raise
     return best
 
+
 # Precondition: c was a child of a node being destroyed.  Restores: c keeps
 # its other parent, or goes on the stack (hollow) or the list (full).
 def _release(c: Any, full: list[Any], stack: list[Any]) -> None:
@@ -148,6 +148,7 @@ def _release(c: Any, full: list[Any], stack: list[Any]) -> None:
             c.ep = None
     else:
         full.append(c)
+
 
 # Unwind: x becomes a full rank-0 root again with ``trees`` as unranked children.
 def _adopt_all(heap: Any, x: Any, trees: list[Any], extra: Any) -> None:

@@ -84,6 +84,7 @@ def survey(heap: Any, report: Any) -> dict[str, Any]:
     while stack:
         v, depth = stack.pop()
         height = max(height, depth)
+
         def at(v: Any = v) -> list[str]:
             return _path(v, found)
 
@@ -103,7 +104,9 @@ def survey(heap: Any, report: Any) -> dict[str, Any]:
                 break
             if c.k < v.k:
                 report.fail(
-                    "heap-order", c.item, [*at(), f"child {degree}"],
+                    "heap-order",
+                    c.item,
+                    [*at(), f"child {degree}"],
                     f"key {c.key!r} is smaller than its parent's {v.key!r}",
                 )
             parents[id(c)] = parents.get(id(c), 0) + 1
@@ -117,7 +120,9 @@ def survey(heap: Any, report: Any) -> dict[str, Any]:
         want = 1 + (c.ep is not None)
         if parents.get(i, 0) != want:
             report.fail(
-                "second-parent", c.item, _path(c, found),
+                "second-parent",
+                c.item,
+                _path(c, found),
                 f"{parents.get(i, 0)} parents reach it but it should have {want}",
             )
     if root is not None and id(root) in parents:
@@ -152,8 +157,6 @@ def _survey_nodes(heap: Any, report: Any, nodes: list[Any]) -> None:
         _check_node(heap, report, v, lambda where=where: where)
         for c, _ in children(v):
             if c.k < v.k:
-                report.fail(
-                    "heap-order", c.item, where, f"key {c.key!r} is smaller than its parent's {v.key!r}"
-                )
+                report.fail("heap-order", c.item, where, f"key {c.key!r} is smaller than its parent's {v.key!r}")
         if root is not None and v.k < root.k:
             report.fail("root", v.item, where, f"key {v.key!r} is below the root's {root.key!r}")

@@ -84,6 +84,7 @@ __all__ = ["LazyHeap"]
 K = TypeVar("K")
 V = TypeVar("V")
 
+
 class LazyHeap(HeapFace[K, V], HeapBase):
     """Binary array heap on the C ``heapq`` functions, invalidating entries lazily.
 
@@ -134,9 +135,7 @@ class LazyHeap(HeapFace[K, V], HeapBase):
             raise foreign_error(op, h)
         e = h._e
         if type(e) is not tuple:
-            raise InvalidHandleError(
-                f"{op}: handle {h!r} is dead (its entry was popped, removed or cleared)"
-            )
+            raise InvalidHandleError(f"{op}: handle {h!r} is dead (its entry was popped, removed or cleared)")
         if owner_root(e[2]) is not self._tok:
             raise InvalidHandleError(f"{op}: handle {h!r} belongs to another heap")
         return e

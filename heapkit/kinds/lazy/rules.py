@@ -69,7 +69,9 @@ def survey(heap: Any, report: Any) -> dict[str, Any]:
             report.fail("bare-keys", h, slot_path(i), f"ordering object {e[0]!r} is a bare {t.__name__}")
         if i and e < a[(i - 1) >> 1]:
             report.fail(
-                "heap-order", h, slot_path(i),
+                "heap-order",
+                h,
+                slot_path(i),
                 f"key {_user_key(e[0])!r} is smaller than its parent's {_user_key(a[(i - 1) >> 1][0])!r}",
             )
     if stale != heap._stale:

@@ -271,7 +271,11 @@ def _sizes_kept(heap: Any) -> Sizes:
 
 #: Audit bounds (heap.py's docstring): op -> (a, b), amortized cost <= a log2 n + b.
 _BOUNDS: dict[str, tuple[int, int]] = {
-    "pop": (2, 1), "meld": (1, 2), "decrease_key": (1, 3), "remove": (3, 3), "change_key": (4, 4),
+    "pop": (2, 1),
+    "meld": (1, 2),
+    "decrease_key": (1, 3),
+    "remove": (3, 3),
+    "change_key": (4, 4),
 }
 
 

@@ -237,7 +237,9 @@ def survey(heap: Any, report: Any) -> dict[str, Any]:
                 report.fail("links", c, seen_path(c, seen, "root"), "prev does not point back")
             if c._k < x._k:
                 report.fail(
-                    "heap-order", c, seen_path(c, seen, "root"),
+                    "heap-order",
+                    c,
+                    seen_path(c, seen, "root"),
                     f"key {c._key!r} is smaller than its parent's {x._key!r}",
                 )
             stack.append((c, depth + 1))

@@ -91,8 +91,7 @@ def _key_error(op: str, key: object, last: int) -> KeyOrderError:
         why = "is negative"
     elif key >= last:
         return KeyOrderError(
-            f"{op}: key of {key.bit_length()} bits is too large: radix heap keys are below "
-            f"2**{MAX_BITS}"
+            f"{op}: key of {key.bit_length()} bits is too large: radix heap keys are below 2**{MAX_BITS}"
         )
     else:
         why = "is too low"

@@ -76,6 +76,7 @@ __all__ = ["RankPairingHeap"]
 K = TypeVar("K")
 V = TypeVar("V")
 
+
 class _Node(HandleBase, Generic[K, V]):
     """Handle and node: ``_left``, ``_right``, ``_up`` (parent; None at a root),
     ``_next``/``_prev`` (root list; None below the roots), ``_rank``."""

@@ -104,9 +104,7 @@ def _survey(heap: Any, report: Any) -> dict[str, Any]:
         if bad is not None:
             report.fail("rank", root, _path(root, seen), bad)
         if root._k < first._k:
-            report.fail(
-                "min-first", root, _path(root, seen), f"key {root._key!r} is smaller than the first root's"
-            )
+            report.fail("min-first", root, _path(root, seen), f"key {root._key!r} is smaller than the first root's")
         max_rank = max(max_rank, root._rank)
         # (node, parent, the node it must not be below, step, depth)
         stack: list[tuple[Any, Any, Any, str, int]] = []
@@ -130,7 +128,9 @@ def _survey(heap: Any, report: Any) -> dict[str, Any]:
                 report.fail("ownership", c, _path(c, seen), "its owner token is not this heap's")
             if anc is not None and c._k < anc._k:
                 report.fail(
-                    "half-order", c, _path(c, seen),
+                    "half-order",
+                    c,
+                    _path(c, seen),
                     f"key {c._key!r} is smaller than {anc._key!r}, whose left subtree holds it",
                 )
             bad = _rank_error(c, False)
@@ -146,7 +146,9 @@ def _survey(heap: Any, report: Any) -> dict[str, Any]:
     counted = tally(roots)
     if counted != (heap._rs, heap._rt, heap._zs):
         report.fail(
-            "tally", None, [],
+            "tally",
+            None,
+            [],
             f"counters (rank sum, roots, 0,i-nodes) are {(heap._rs, heap._rt, heap._zs)} "
             f"but the structure has {counted}",
         )

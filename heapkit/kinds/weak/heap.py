@@ -53,7 +53,7 @@ from typing import Any, ClassVar, TypeVar
 
 from heapkit._core import HeapBase, empty_error, nan_error, upward_error
 from heapkit._face import HeapFace
-from heapkit.kinds.dary.heap import _Slot  # the array-position handle, shared with the d-ary heap
+from heapkit.kinds.dary.slot import _Slot  # the array-position handle, shared with the d-ary heap
 from heapkit.kinds.weak import cost as _cost
 from heapkit.kinds.weak import rules as _rules
 from heapkit.protocol import Handle
@@ -104,7 +104,7 @@ class WeakHeap(HeapFace[K, V], HeapBase):
     PHI_C: ClassVar[float] = _cost.PHI_C
     _NODE: ClassVar[type[Any]] = _Slot
 
-    _a: list[_Slot[K, V]]
+    _a: list[_Slot]
     _r: bytearray
     _s: int
     _up: list[int]
@@ -191,7 +191,7 @@ class WeakHeap(HeapFace[K, V], HeapBase):
 
     # Move: each chain position takes the entry of the next one and flips its
     # bit (joins that swapped); x lands at the last position.
-    def _lift(self, chain: list[int], x: _Slot[K, V]) -> None:
+    def _lift(self, chain: list[int], x: _Slot) -> None:
         a = self._a
         r = self._r
         n = len(a)
@@ -231,7 +231,7 @@ class WeakHeap(HeapFace[K, V], HeapBase):
 
     # Move: apply the swaps _sink chose; x ends where the joins leave it and the
     # smallest entry of the subtree at t.
-    def _lower(self, t: int, swaps: list[int], x: _Slot[K, V]) -> None:
+    def _lower(self, t: int, swaps: list[int], x: _Slot) -> None:
         a = self._a
         r = self._r
         n = len(a)
@@ -258,7 +258,7 @@ class WeakHeap(HeapFace[K, V], HeapBase):
             self._s = m
 
     # --- protocol --------------------------------------------------------------
-    def push(self, key: K, value: V) -> _Slot[K, V]:
+    def push(self, key: K, value: V) -> _Slot:
         """Insert an entry and return its handle.  O(1) worst-case, 2 comparisons amortized.
 
         >>> WeakHeap().push(3, 'c').key
@@ -281,7 +281,7 @@ class WeakHeap(HeapFace[K, V], HeapBase):
         self._ver += 1
         return x
 
-    def peek(self) -> _Slot[K, V]:
+    def peek(self) -> _Slot:
         """The handle of a smallest entry.  O(1) once settled; a settle first, O(log n) amortized.
 
         >>> WeakHeap([(4, 'd'), (1, 'a')]).peek().value
@@ -448,7 +448,7 @@ class WeakHeap(HeapFace[K, V], HeapBase):
         self._s = 0
         self._up = []
 
-    def _handles(self) -> Iterator[_Slot[K, V]]:
+    def _handles(self) -> Iterator[_Slot]:
         # A copy: peek may settle (reorder the array) while an iteration runs.
         return iter(self._a[:])
 

@@ -87,7 +87,9 @@ def survey(heap: Weak, report: Any) -> dict[str, Any]:
             y = a[p]
             if i not in pend and x._k < y._k:
                 report.fail(
-                    "weak-order", x, path(heap, i),
+                    "weak-order",
+                    x,
+                    path(heap, i),
                     f"key {x._key!r} is smaller than its distinguished ancestor's {y._key!r}",
                 )
     return {
