@@ -20,6 +20,9 @@ MODULES: tuple[str, ...] = (
     "heapkit._core",
     "heapkit.bench.graphs",
     "heapkit.kinds.pairing.links",
+    "heapkit.kinds.dary.slot",
+    "heapkit.kinds.dary.paths",
+    "heapkit.kinds.dary.core",
 )
 
 _SUFFIXES = tuple(importlib.machinery.EXTENSION_SUFFIXES)

@@ -2,7 +2,7 @@
 
 :class:`heapkit.kinds.dary.DaryHeap` takes these as methods (``heap`` is the
 heap); they moved here from ``dary.py`` to keep it under 500 lines when its pop
-gained the arity-4 pair verdicts (issue 15).  Each compares before it moves, or
+gained the arity-4 pair verdicts (issue 15).  The walks are ``paths.py``'s.  Each compares before it moves, or
 undoes its moves before an exception from a key's ``<`` propagates.
 """
 
@@ -12,6 +12,7 @@ from collections.abc import Iterable
 from typing import Any
 
 from heapkit._core import nan_error
+from heapkit.kinds.dary.paths import climb, descend, forget, lower_path, raise_path
 
 __all__ = ["build", "heapify", "meld_from", "unpush"]
 
@@ -50,11 +51,12 @@ def heapify(heap: Any) -> None:
     """
     a = heap._a
     m = len(a)
-    heap._w = [0] * (m >> 1)
-    for s in range((m - 2) // heap._d, -1, -1):
+    d = heap._d
+    w = heap._w = [0] * (m >> 1)
+    for s in range((m - 2) // d, -1, -1):
         x = a[s]
-        t = heap._descend(s, x._k, m)
-        heap._raise_path(s, t, x)
+        t = descend(a, d, w, s, x._k, m)
+        raise_path(a, d, s, t, x)
 
 
 def meld_from(heap: Any, other: Any) -> None:
@@ -72,14 +74,16 @@ def meld_from(heap: Any, other: Any) -> None:
     tok = heap._tok
     if heap._pushes(n, m):
         # A few entries into many: push them, undoing in reverse on failure.
-        heap._w.extend([0] * max(0, (n + m) // 2 - len(heap._w)))
+        w = heap._w
+        w.extend([0] * max(0, (n + m) // 2 - len(w)))
+        d = heap._d
         done = 0
         try:
             for x in b:
                 j = len(a)
-                t = heap._climb(j, x._k)
+                t = climb(a, d, j, x._k)
                 a.append(x)
-                heap._lower_path(j, t, x)
+                lower_path(a, d, w, j, t, x)
                 done += 1
         except BaseException:
             for x in reversed(b[:done]):
@@ -122,7 +126,7 @@ def unpush(heap: Any, x: Any) -> None:
         j = (j - 1) // d
         chain.append(j)
     if d == 4:
-        heap._forget(chain[0], j)
+        forget(heap._w, chain[0], j)
     for lo, hi in zip(chain[-1:0:-1], chain[-2::-1], strict=True):
         q = a[hi]
         a[lo] = q

@@ -53,7 +53,7 @@ from typing import Any, ClassVar, TypeVar
 
 from heapkit._core import HeapBase, empty_error, nan_error, upward_error
 from heapkit._face import HeapFace
-from heapkit.kinds.dary.slot import _Slot  # the array-position handle, shared with the d-ary heap
+from heapkit.kinds.dary.slot import _PURE, _Slot  # the array-position handle, shared with the d-ary heap
 from heapkit.kinds.weak import cost as _cost
 from heapkit.kinds.weak import rules as _rules
 from heapkit.protocol import Handle
@@ -267,12 +267,15 @@ class WeakHeap(HeapFace[K, V], HeapBase):
         if key != key:
             raise nan_error("push", key)
         w = self._wrap
-        # __new__ and slot stores instead of __init__, as in dary/heap.py (measured there).
-        x = _new(_Slot)
-        x._key = key
-        x._k = key if w is None else w(key, None)
-        x.value = value
-        x._tok = self._tok
+        # __new__ and slot stores (dary/core.py, measured there); compiled _Slot: the constructor.
+        if _PURE:
+            x = _new(_Slot)
+            x._key = key
+            x._k = key if w is None else w(key, None)
+            x.value = value
+            x._tok = self._tok
+        else:
+            x = _Slot(key, key if w is None else w(key, None), value, self._tok)
         a = self._a
         x._i = len(a)
         a.append(x)
