@@ -160,3 +160,38 @@ def test_pure_switch_matches_the_build() -> None:
     h = heapkit.PairingHeap()
     x = h.push(2, "b")
     assert (x.key, x.value, x.alive) == (2, "b", True)
+
+
+def test_array_core_is_never_the_class_of_a_heap() -> None:
+    """As for pairing: the d-ary and binary heaps are instances of their public classes on
+    every constructor path, never of the compiled ``_DaryCore``; ``_Slot`` is sealed."""
+    from heapkit.kinds.dary.core import _DaryCore
+    from heapkit.kinds.dary.slot import _Slot
+
+    for cls in (heapkit.DaryHeap, heapkit.BinaryHeap):
+        h = cls([(3, "c"), (1, "a")])
+        made = [h, copy.copy(h), copy.deepcopy(h), pickle.loads(pickle.dumps(h)), heapkit.new(cls.KIND)]
+        for other in made:
+            assert type(other) is cls and type(other) is not _DaryCore
+    assert isinstance(heapkit.BinaryHeap(), heapkit.DaryHeap)  # binary is the d-ary heap at arity 2
+    assert _Slot.__subclasses__() == []  # sealed: compiled with no flag for subclasses
+
+
+@pytest.mark.parametrize("arity", [2, 3, 4])
+def test_array_slot_switch_matches_the_build(arity: int) -> None:
+    """dary.slot lets the kinds make handles with a bare __new__ only when it runs as source;
+    every arity's push, decrease_key and pop agree with heapq's order (the outside check)."""
+    import heapq
+
+    from heapkit._compiled import _is_extension
+    from heapkit.kinds.dary import slot
+
+    assert slot._PURE is not _is_extension(slot.__spec__)
+    h = heapkit.DaryHeap(arity=arity)
+    keys = [(i * 7919) % 101 for i in range(200)]
+    handles = [h.push(k, i) for i, k in enumerate(keys)]
+    for i in range(0, 200, 3):
+        keys[i] -= 50
+        h.decrease_key(handles[i], keys[i])
+    heapq.heapify(keys)
+    assert [h.pop()[0] for _ in range(len(h))] == [heapq.heappop(keys) for _ in range(200)]  # source: heapq

@@ -77,15 +77,15 @@ class _DaryCore(HeapBase):
                 a[j] = q
                 q._i = j
                 j = p
-        else:
-            while t:
-                p = (t - 1) // d
+        elif d == 4:
+            while t:  # shifts, not // d: a C division a level saved when compiled
+                p = (t - 1) >> 2
                 if k < a[p]._k:
                     t = p
                 else:
                     break
             a.append(x)
-            if d == 4 and j:
+            if j:
                 # Arity 4: forget the pair verdicts of the positions that change (w
                 # holds at least n // 2 entries, so a new pair is at most one past it).
                 pv = self._w
@@ -101,6 +101,14 @@ class _DaryCore(HeapBase):
                     j = p
                     if j:
                         pv[(j - 1) >> 1] = 0
+        else:
+            while t:
+                p = (t - 1) // d
+                if k < a[p]._k:
+                    t = p
+                else:
+                    break
+            a.append(x)
             while j != t:
                 p = (j - 1) // d
                 q = a[p]
@@ -184,16 +192,19 @@ class _DaryCore(HeapBase):
             last = a[m]
             t = descend(a, d, self._w, 0, last._k, m)
             a.pop()
-            # raise_path(a, d, 0, t, last) written inline: one call fewer a pop.
-            carry = a[t]
-            a[t] = last
-            last._i = t
-            while t:
-                t = (t - 1) // d
-                q = a[t]
-                a[t] = carry
-                carry._i = t
-                carry = q
+            if d == 4:
+                # raise_path(a, 4, 0, t, last) written inline: one call fewer a pop.
+                carry = a[t]
+                a[t] = last
+                last._i = t
+                while t:
+                    t = (t - 1) >> 2
+                    q = a[t]
+                    a[t] = carry
+                    carry._i = t
+                    carry = q
+            else:
+                raise_path(a, d, 0, t, last)
         else:
             a.pop()
         self._n = m
@@ -238,16 +249,16 @@ class _DaryCore(HeapBase):
                 a[j] = q
                 q._i = j
                 j = p
-        else:
+        elif d == 4:
             while t:
-                p = (t - 1) // d
+                p = (t - 1) >> 2
                 if k < a[p]._k:
                     t = p
                 else:
                     break
             x._key = key
             x._k = k
-            if d == 4 and j:
+            if j:
                 pv = self._w
                 pv[(j - 1) >> 1] = 0  # smaller now: its pair's verdict may change
                 while j != t:
@@ -258,6 +269,15 @@ class _DaryCore(HeapBase):
                     j = p
                     if j:
                         pv[(j - 1) >> 1] = 0
+        else:
+            while t:
+                p = (t - 1) // d
+                if k < a[p]._k:
+                    t = p
+                else:
+                    break
+            x._key = key
+            x._k = k
             while j != t:
                 p = (j - 1) // d
                 q = a[p]
