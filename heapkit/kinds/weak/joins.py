@@ -14,7 +14,7 @@ module level (direct calls when compiled), no ``Generic``, no ``__weakref__``, n
 
 from __future__ import annotations
 
-from collections.abc import Callable, Iterable, Iterator
+from collections.abc import Callable, Iterable, Iterator, Sequence
 from heapq import heappop, heappush
 from typing import Any, Final
 
@@ -31,7 +31,7 @@ _PURE: Final = __file__.endswith(".py")
 _new: Final = _Slot.__new__
 
 
-def d_ancestor(r: bytearray, j: int) -> int:
+def d_ancestor(r: Sequence[int], j: int) -> int:
     """The distinguished ancestor of position ``j >= 1``.  O(log j), no comparison.
 
     >>> d_ancestor(bytearray(4), 2), d_ancestor(bytearray(4), 3)
@@ -197,7 +197,9 @@ class _WeakCore(HeapBase):
     def __init__(self, pairs: Iterable[tuple[Any, Any]] = (), *, stable: bool = False) -> None:
         self._setup(stable)
         self._a: list[_Slot] = []
-        self._r: bytearray = bytearray()
+        # One int per bit, not a bytearray: compiled, a list read is a C array read (a
+        # bytearray read boxes the index and calls back into Python).
+        self._r: list[int] = []
         self._s: int = 0
         self._up: list[int] = []
         self._work: int = 0  # key comparisons made so far: the audit's cost unit (cost.py)
@@ -421,11 +423,11 @@ class _WeakCore(HeapBase):
             x._i = len(a)
             x._tok = tok
             a.append(x)
-        self._r.extend(bytes(len(b)))
+        self._r.extend([0] * len(b))
 
     def _reset(self) -> None:
         self._a = []
-        self._r = bytearray()
+        self._r = []
         self._s = 0
         self._up = []
 
@@ -442,7 +444,7 @@ class _WeakCore(HeapBase):
         for i, x in enumerate(a):
             x._i = i
         self._a = a
-        self._r = bytearray(bits)
+        self._r = list(bits)
         self._s = s
         self._up = list(up)
 
