@@ -19,10 +19,11 @@ __all__ = ["MODULES", "StaleBuildError", "running_compiled", "stale_extensions"]
 MODULES: tuple[str, ...] = (
     "heapkit._core",
     "heapkit.bench.graphs",
-    "heapkit.kinds.pairing.links",
     "heapkit.kinds.dary.slot",
+    "heapkit.kinds.pairing.links",
     "heapkit.kinds.dary.paths",
     "heapkit.kinds.dary.core",
+    "heapkit.kinds.weak.joins",
 )
 
 _SUFFIXES = tuple(importlib.machinery.EXTENSION_SUFFIXES)

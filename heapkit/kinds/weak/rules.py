@@ -9,7 +9,7 @@ subtree" (Dutton 1993; recalled from memory).
 
 from __future__ import annotations
 
-from collections.abc import Iterator
+from collections.abc import Iterator, Sequence
 from typing import TYPE_CHECKING, Any
 
 if TYPE_CHECKING:
@@ -30,7 +30,7 @@ RULES: dict[str, str] = {
 }
 
 
-def _da(r: bytearray, j: int) -> int:
+def _da(r: Sequence[int], j: int) -> int:
     """Distinguished ancestor of ``j >= 1`` (tolerates a corrupt root bit: stops at 0)."""
     while j > 1 and (j & 1) == r[j >> 1]:
         j >>= 1
@@ -79,7 +79,7 @@ def survey(heap: Weak, report: Any) -> dict[str, Any]:
             report.fail("index", x, path(heap, i), f"handle says position {x._i}, stands at {i}")
         if x not in heap:
             report.fail("ownership", x, path(heap, i), "its owner token is not this heap's")
-        if bits_ok and (r[i] > 1 or (r[i] and 2 * i >= n)):
+        if bits_ok and (r[i] not in (0, 1) or (r[i] and 2 * i >= n)):
             report.fail("reverse-bits", x, path(heap, i), f"reverse bit {r[i]!r} at a position with no child")
         if i and bits_ok:
             p = _da(r, i)
