@@ -20,6 +20,10 @@ MODULES: tuple[str, ...] = (
     "heapkit._core",
     "heapkit.bench.graphs",
     "heapkit.kinds.pairing.links",
+    "heapkit.kinds.fibonacci.rings",
+    "heapkit.kinds.fibonacci.moves",
+    "heapkit.kinds.binomial.forest",
+    "heapkit.kinds.binomial.moves",
 )
 
 _SUFFIXES = tuple(importlib.machinery.EXTENSION_SUFFIXES)
