@@ -24,6 +24,10 @@ MODULES: tuple[str, ...] = (
     "heapkit.kinds.dary.paths",
     "heapkit.kinds.dary.core",
     "heapkit.kinds.weak.joins",
+    "heapkit.kinds.fibonacci.rings",
+    "heapkit.kinds.fibonacci.moves",
+    "heapkit.kinds.binomial.forest",
+    "heapkit.kinds.binomial.moves",
 )
 
 _SUFFIXES = tuple(importlib.machinery.EXTENSION_SUFFIXES)

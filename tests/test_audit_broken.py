@@ -14,7 +14,9 @@ Outside facts used as check values:
 
 from __future__ import annotations
 
+import contextlib
 import math
+from collections.abc import Iterator
 from typing import Any
 
 import pytest
@@ -32,20 +34,40 @@ class NoCascadeFibonacciHeap(FibonacciHeap[Any, Any]):
     """Deliberately broken: CLRS's CUT without CASCADING-CUT.  A cut node goes to the
     root ring and that is all: its parent is never marked (marking lives in the
     cascading cut), and a parent that has lost children is never cut in turn.  Every
-    cut of the kind goes through ``_cut`` (decrease_key, remove, change_key upward),
-    so all of them lose the cascade; no mark is ever set."""
+    cut of the kind starts at the handle of decrease_key, remove or an upward
+    change_key, so overriding those three loses every cascade; no mark is ever set.
+    (The cut itself is a module-level function of the compiled hot path, not a method
+    a subclass could override.)"""
 
     __slots__ = ()
 
-    def _cut(self, x: Any) -> None:
-        # The kind's _cut stops at a parent that looks like a root: hide the grandparent.
-        p = x._parent
-        g = p._parent
-        p._parent = None
-        try:
-            super()._cut(x)
-        finally:
-            p._parent = g
+    def decrease_key(self, handle: Any, key: Any) -> None:
+        with _grandparent_hidden(handle):
+            super().decrease_key(handle, key)
+
+    def change_key(self, handle: Any, key: Any) -> None:
+        with _grandparent_hidden(handle):
+            super().change_key(handle, key)
+
+    def remove(self, handle: Any) -> tuple[Any, Any]:
+        with _grandparent_hidden(handle):
+            return super().remove(handle)
+
+
+@contextlib.contextmanager
+def _grandparent_hidden(x: Any) -> Iterator[None]:
+    """The kind's cut stops at a parent that looks like a root: hide x's grandparent
+    while the operation runs, so a cut of x never goes further up."""
+    p = getattr(x, "_parent", None)
+    if p is None:
+        yield
+        return
+    g = p._parent
+    p._parent = None
+    try:
+        yield
+    finally:
+        p._parent = g
 
 
 def fib(k: int) -> int:

@@ -43,8 +43,7 @@ def test_compiled_modules_keep_the_mypyc_rules(module: str) -> None:
     tree = _source(module)
     # object.__new__ is allowed behind the pure-build switch only (never run when compiled).
     switched = any(
-        isinstance(n, ast.AnnAssign | ast.Assign) and "_PURE" in ast.unparse(n).split("=")[0]
-        for n in tree.body
+        isinstance(n, ast.AnnAssign | ast.Assign) and "_PURE" in ast.unparse(n).split("=")[0] for n in tree.body
     )
     problems: list[str] = []
     for node in ast.walk(tree):
@@ -195,3 +194,30 @@ def test_array_slot_switch_matches_the_build(arity: int) -> None:
         h.decrease_key(handles[i], keys[i])
     heapq.heapify(keys)
     assert [h.pop()[0] for _ in range(len(h))] == [heapq.heappop(keys) for _ in range(200)]  # source: heapq
+
+
+# The kinds whose hot path is a compiled room: (kind, room module, core class, node class).
+COMPILED_ROOMS = [
+    ("fibonacci", "heapkit.kinds.fibonacci.moves", "_FibonacciCore", "heapkit.kinds.fibonacci.rings"),
+    ("binomial", "heapkit.kinds.binomial.moves", "_BinomialCore", "heapkit.kinds.binomial.forest"),
+]
+
+
+@pytest.mark.parametrize(("name", "room", "core", "nodes"), COMPILED_ROOMS)
+def test_compiled_cores_are_never_the_class_of_a_heap(name: str, room: str, core: str, nodes: str) -> None:
+    """As for pairing above: every constructor path makes the public class, never the core
+    (a mode's class switch on an instance of the compiled core would be skipped, §4), and
+    the node class is sealed (mypyc does not stop a Python subclass of it, §3 rule 4)."""
+    import importlib
+
+    core_cls = getattr(importlib.import_module(room), core)
+    node_cls = importlib.import_module(nodes)._Node
+    public = heapkit.KINDS[name]
+    assert room in MODULES and nodes in MODULES
+    h = public([(3, "c"), (1, "a")])
+    made = [h, h._spawn(), copy.copy(h), copy.deepcopy(h), pickle.loads(pickle.dumps(h)), heapkit.new(name)]
+    for other in made:
+        assert type(other) is public and type(other) is not core_cls
+    assert public._NODE is node_cls and type(h.peek()) is node_cls
+    assert node_cls.__subclasses__() == [] and Generic not in node_cls.__mro__
+    assert core_cls.__subclasses__() == [public]

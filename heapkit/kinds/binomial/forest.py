@@ -1,45 +1,45 @@
-"""The binomial forest: the node, and the compare-first link planner.
+"""The binomial forest: the node, and the compare-first link planner.  Compiled by mypyc
+in the compiled build (with ``moves.py``).
 
 Binary addition on root arrays (index = degree): ``_plan`` and ``_plan_push``
 only compare and record each link as ``(winner, loser)``; ``_apply`` then links
 without comparing.  So an exception from a key's ``<`` always strikes before
-anything moved.  Used by ``heap.py``, ``rules.py`` and ``cost.py``; no recursion anywhere.
+anything moved.  Used by ``moves.py``, ``rules.py`` and ``cost.py``; no recursion anywhere.
+Rules for this module: nodes typed as their class, no ``Generic``, no ``__weakref__``, no
+``TYPE_CHECKING``/``else``.
 """
 
 from __future__ import annotations
 
-from typing import Any, Generic, TypeVar
+from typing import Any
 
 from heapkit._core import HandleBase
 
 __all__ = ["_Node", "_ancestors", "_apply", "_plan", "_plan_push", "_scan", "_up"]
 
-K = TypeVar("K")
-V = TypeVar("V")
 
-
-class _Node(HandleBase, Generic[K, V]):
-    """Handle and tree node: ``_child`` (leftmost, highest degree), ``_next``
+class _Node(HandleBase):
+    """Handle and tree node (sealed: never subclass it): ``_child`` (leftmost, highest degree), ``_next``
     (right sibling), ``_prev`` (left sibling, or the parent for a leftmost
     child, None for a root), ``_deg`` (number of children)."""
 
     __slots__ = ("_child", "_deg", "_next", "_prev")
 
-    def __init__(self, key: K, k: Any, value: V, tok: Any) -> None:
+    def __init__(self, key: Any, k: Any, value: Any, tok: Any) -> None:
         self._key = key
         self._k = k
         self.value = value
         self._tok = tok
-        self._child: Any = None
-        self._next: Any = None
-        self._prev: Any = None
-        self._deg = 0
+        self._child: _Node | None = None
+        self._next: _Node | None = None
+        self._prev: _Node | None = None
+        self._deg: int = 0
 
 
 # Precondition: x is a node.  Returns (its parent or None for a root, its
 # index among its siblings), walking left to the leftmost sibling, whose prev
 # is the parent -- at most ``guard`` steps (a bound for corrupted links).
-def _up(x: Any, guard: int) -> tuple[Any, int]:
+def _up(x: _Node, guard: int) -> tuple[_Node | None, int]:
     i = 0
     p = x._prev
     while p is not None and p._child is not x and i <= guard:
@@ -51,8 +51,8 @@ def _up(x: Any, guard: int) -> tuple[Any, int]:
 
 # Precondition: x is a node of a heap of ``n`` entries.  Its ancestors,
 # nearest first.  The walks telescope to O(log n) steps (see heap.py).
-def _ancestors(x: Any, n: int) -> list[Any]:
-    out: list[Any] = []
+def _ancestors(x: _Node, n: int) -> list[_Node]:
+    out: list[_Node] = []
     p = _up(x, n)[0]
     while p is not None and len(out) <= n:
         out.append(p)
@@ -64,11 +64,12 @@ def _ancestors(x: Any, n: int) -> list[Any]:
 # of roots counts as empty.  Compare only: simulates binary addition, appends
 # each link as (winner, loser) to ``links`` and returns the resulting roots
 # array (trailing None sentinel).  Nothing is mutated.
-def _plan(roots: list[Any], adds: list[Any], skip: int, links: list[Any]) -> list[Any]:
+def _plan(roots: list[_Node | None], adds: list[_Node | None], skip: int, links: list[_Node]) -> list[_Node | None]:
     na = len(roots)
     nb = len(adds)
-    out: list[Any] = []
-    carry: Any = None
+    out: list[_Node | None] = []
+    carry: _Node | None = None
+    d: int
     for d in range(max(na, nb)):
         a = roots[d] if d < na and d != skip else None
         b = adds[d] if d < nb else None
@@ -83,12 +84,14 @@ def _plan(roots: list[Any], adds: list[Any], skip: int, links: list[Any]) -> lis
             continue
         # two trees of degree d (a, b) meet; a third, if any, stays in carry
         stay = carry
-        if b._k < a._k:
-            a, b = b, a
-        links.append(a)
-        links.append(b)
+        win: _Node = a  # type: ignore[assignment]  # not None: b is set only when a is
+        lose: _Node = b
+        if lose._k < win._k:
+            win, lose = lose, win
+        links.append(win)
+        links.append(lose)
         out.append(stay)
-        carry = a
+        carry = win
     if carry is not None:
         out.append(carry)
     while out and out[-1] is None:
@@ -100,8 +103,10 @@ def _plan(roots: list[Any], adds: list[Any], skip: int, links: list[Any]) -> lis
 # Precondition: roots is a planned roots array, x (ordered by k) is not in it.
 # Compare only: plans pushing x as a one-node tree; mutates just ``roots``
 # (a fresh array from _plan).
-def _plan_push(roots: list[Any], x: Any, k: Any, links: list[Any]) -> None:
-    c, ck, d = x, k, 0
+def _plan_push(roots: list[_Node | None], x: _Node, k: Any, links: list[_Node]) -> None:
+    c = x
+    ck = k
+    d = 0
     r = roots[0]
     while r is not None:
         if ck < r._k:
@@ -110,7 +115,8 @@ def _plan_push(roots: list[Any], x: Any, k: Any, links: list[Any]) -> None:
         else:
             links.append(r)
             links.append(c)
-            c, ck = r, r._k
+            c = r
+            ck = r._k
         roots[d] = None
         d += 1
         r = roots[d]
@@ -120,20 +126,23 @@ def _plan_push(roots: list[Any], x: Any, k: Any, links: list[Any]) -> None:
 
 
 # Compare only: the root of ``roots`` ordered first (x counts as ordered by k).
-def _scan(roots: list[Any], x: Any = None, k: Any = None) -> Any:
-    best = bk = None
+def _scan(roots: list[_Node | None], x: _Node | None = None, k: Any = None) -> _Node | None:
+    best: _Node | None = None
+    bk: Any = None
     for r in roots:
         if r is not None:
             rk = k if r is x else r._k
             if best is None or rk < bk:
-                best, bk = r, rk
+                best = r
+                bk = rk
     return best
 
 
 # Precondition: links from _plan, every loser a detached root of its winner's
 # degree when its turn comes.  Links without comparing; returns where the
 # minimum ``mn`` ends (a loser's winner is no larger, so it is minimal too).
-def _apply(links: list[Any], mn: Any) -> Any:
+def _apply(links: list[_Node], mn: _Node | None) -> _Node | None:
+    i: int
     for i in range(0, len(links), 2):
         w = links[i]
         lo = links[i + 1]

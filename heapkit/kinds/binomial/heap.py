@@ -52,14 +52,14 @@ Communications of the ACM 21(4) (1978) 309-315 (pages recalled from memory).
 
 from __future__ import annotations
 
-from collections.abc import Callable, Iterable, Iterator
-from typing import Any, ClassVar, TypeVar
+from collections.abc import Iterable, Iterator
+from typing import TYPE_CHECKING, Any, ClassVar, TypeVar
 
-from heapkit._core import HeapBase, empty_error, nan_error, upward_error
 from heapkit._face import HeapFace
 from heapkit.kinds.binomial import cost as _cost
 from heapkit.kinds.binomial import rules as _rules
-from heapkit.kinds.binomial.forest import _ancestors, _apply, _Node, _plan, _plan_push, _scan
+from heapkit.kinds.binomial.forest import _Node
+from heapkit.kinds.binomial.moves import _BinomialCore
 from heapkit.protocol import Handle
 
 __all__ = ["BinomialHeap"]
@@ -68,7 +68,7 @@ K = TypeVar("K")
 V = TypeVar("V")
 
 
-class BinomialHeap(HeapFace[K, V], HeapBase):
+class BinomialHeap(HeapFace[K, V], _BinomialCore):
     """Eager binomial heap with handles.
 
     >>> h = BinomialHeap([(5, 'e'), (2, 'b')])
@@ -78,7 +78,7 @@ class BinomialHeap(HeapFace[K, V], HeapBase):
     ((1, 'i'), (2, 'b'), 1)
     """
 
-    __slots__ = ("__weakref__", "_min", "_raised", "_roots")
+    __slots__ = ("__weakref__",)  # the core (moves.py, compiled) holds the fields
 
     KIND: ClassVar[str] = "binomial"
     BOUNDS: ClassVar[str] = "push O(1) amortized; push, meld, pop, remove, decrease_key, change_key O(log n) worst-case"
@@ -89,341 +89,21 @@ class BinomialHeap(HeapFace[K, V], HeapBase):
     POTENTIAL: ClassVar[str] = _cost.POTENTIAL
     PHI_C: ClassVar[float] = _cost.PHI_C
 
-    _roots: list[Any]
-    _min: Any
-    _raised: int  # change_key calls that moved a key up (the auditor tells them apart)
+    if TYPE_CHECKING:  # the typed public face (the compiled core takes Any keys and values)
 
-    def __init__(self, pairs: Iterable[tuple[K, V]] = (), *, stable: bool = False) -> None:
-        self._setup(stable)
-        self._roots = [None]
-        self._min = None
-        self._raised = 0
-        self._finish_init(pairs)
+        def __init__(self, pairs: Iterable[tuple[K, V]] = (), *, stable: bool = False) -> None: ...
 
-    def push(self, key: K, value: V) -> Handle[K, V]:
-        """Insert an entry and return its handle.  O(1) amortized, O(log n) worst-case.
+        def push(self, key: K, value: V) -> Handle[K, V]: ...
 
-        >>> h = BinomialHeap()
-        >>> h.push(3, 'c').key
-        3
-        """
-        if key != key:
-            raise nan_error("push", key)
-        w = self._wrap
-        k = key if w is None else w(key, None)
-        x = _Node(key, k, value, self._tok)
-        roots = self._roots
-        mn = self._min
-        bits = 0
-        if mn is None:
-            self._min = x
-        elif k < mn._k:
-            self._min = x  # x is below every root: it wins every link
-        else:
-            # Compare first: bit d set when the root of degree d wins its link.
-            # Once the min joins the carry it wins every later link unasked
-            # (so a tie never buries the min below a root).
-            ck = k
-            d = 0
-            r = roots[0]
-            while r is not None:
-                if r is mn:
-                    bits |= 1 << d
-                    break
-                rk = r._k
-                if not ck < rk:
-                    bits |= 1 << d
-                    ck = rk
-                d += 1
-                r = roots[d]
-        c = x
-        d = 0
-        r = roots[0]
-        while r is not None:
-            roots[d] = None
-            if bits >> d & 1:
-                c, r = r, c
-            s = c._child
-            r._next = s
-            if s is not None:
-                s._prev = r
-            r._prev = c
-            c._child = r
-            c._deg += 1
-            d += 1
-            r = roots[d]
-        roots[d] = c
-        if d == len(roots) - 1:
-            roots.append(None)
-        self._n += 1
-        self._ver += 1
-        return x
+        def peek(self) -> Handle[K, V]: ...
 
-    def peek(self) -> Handle[K, V]:
-        """The handle of a smallest entry.  O(1) worst-case.
+        def pop(self) -> tuple[K, V]: ...
 
-        >>> BinomialHeap([(4, 'd'), (1, 'a')]).peek().value
-        'a'
-        """
-        mn = self._min
-        if mn is None:
-            raise empty_error("peek")
-        return mn  # type: ignore[no-any-return]
+        def decrease_key(self, handle: Handle[K, V], key: K) -> None: ...
 
-    def pop(self) -> tuple[K, V]:
-        """Remove and return a smallest ``(key, value)``.  O(log n) worst-case.
+        def change_key(self, handle: Handle[K, V], key: K) -> None: ...
 
-        >>> BinomialHeap([(4, 'd'), (1, 'a')]).pop()
-        (1, 'a')
-        """
-        m = self._min
-        if m is None:
-            raise empty_error("pop")
-        kids = self._kids(m)
-        links: list[Any] = []
-        roots = _plan(self._roots, kids, m._deg, links)
-        mn = _scan(roots)
-        self._detach(m, kids)
-        self._roots = roots
-        self._min = _apply(links, mn)
-        self._n -= 1
-        self._ver += 1
-        m._tok = None
-        return m._key, m.value
-
-    def decrease_key(self, handle: Handle[K, V], key: K) -> None:
-        """Give the entry a key that is not larger.  O(log n) worst-case.
-
-        >>> h = BinomialHeap([(4, 'd'), (6, 'f')])
-        >>> x = h.push(8, 'h'); h.decrease_key(x, 2); h.peek() is x
-        True
-        """
-        x: Any = handle
-        k = self._new_order(x, key, "decrease_key")
-        if x._k < k:
-            raise upward_error(x, key)
-        self._lower(x, key, k)
-
-    def change_key(self, handle: Handle[K, V], key: K) -> None:
-        """Give the entry any key.  O(log n) worst-case.
-
-        >>> h = BinomialHeap([(4, 'd')])
-        >>> x = h.push(1, 'a'); h.change_key(x, 9); h.pop()
-        (4, 'd')
-        """
-        x: Any = handle
-        k = self._new_order(x, key, "change_key")
-        if not x._k < k:
-            self._lower(x, key, k)
-            return
-        # Raise: take x out (as remove does), then push it back with key k.
-        path, kids = self._lift_plan(x)
-        links: list[Any] = []
-        roots = _plan(self._roots, kids, len(kids), links)
-        _plan_push(roots, x, k, links)
-        mn = self._min
-        if mn is x:
-            mn = _scan(roots, x, k)
-        self._lift(x, path)
-        self._detach(x, kids)
-        x._deg = 0
-        x._key = key
-        x._k = k
-        self._roots = roots
-        self._min = _apply(links, mn)
-        self._raised += 1
-        self._ver += 1
-
-    def remove(self, handle: Handle[K, V]) -> tuple[K, V]:
-        """Delete the entry and return ``(key, value)``.  O(log n) worst-case.
-
-        >>> h = BinomialHeap([(1, 'a'), (2, 'b')])
-        >>> x = h.push(3, 'c'); h.remove(x), len(h)
-        ((3, 'c'), 2)
-        """
-        x: Any = handle
-        if type(x) is not _Node or x._tok is not self._tok:
-            self._claim(x, "remove")
-        path, kids = self._lift_plan(x)
-        links: list[Any] = []
-        roots = _plan(self._roots, kids, len(kids), links)
-        mn = self._min
-        if mn is x:
-            mn = _scan(roots)
-        self._lift(x, path)
-        self._detach(x, kids)
-        self._roots = roots
-        self._min = _apply(links, mn)
-        self._n -= 1
-        self._ver += 1
-        x._tok = None
-        return x._key, x.value
-
-    # Precondition: x is live here, k is not above x's ordering object.
-    # Compares along the path first (and with the min), then swaps.
-    def _lower(self, x: Any, key: Any, k: Any) -> None:
-        path = []
-        y = x
-        while True:
-            p = y._prev  # walk left to the leftmost sibling: its prev is the parent
-            while p is not None and p._child is not y:
-                y = p
-                p = y._prev
-            if p is None or not k < p._k:
-                break
-            path.append(p)
-            y = p
-        mn = self._min
-        if p is None and mn is not x and ((path and path[-1] is mn) or k < mn._k):
-            mn = x
-        x._key = key
-        x._k = k
-        self._lift(x, path)
-        self._min = mn
-        self._ver += 1
-
-    # Compare-free: the ancestors x passes on its way to a root, and the root
-    # array of the children x has once it is there (the top ancestor takes the
-    # place of the child on the path).
-    def _lift_plan(self, x: Any) -> tuple[list[Any], list[Any]]:
-        path = _ancestors(x, self._n)
-        top = path[-1] if path else x
-        kids = self._kids(top)
-        if path:
-            below = path[-2] if len(path) > 1 else x
-            kids[below._deg] = top
-        return path, kids
-
-    # Moves x up past every node of path (its ancestors, nearest first).
-    def _lift(self, x: Any, path: list[Any]) -> None:
-        for p in path:
-            self._swap_up(x, p)
-
-    @staticmethod
-    def _kids(x: Any) -> list[Any]:
-        """x's children as a root array (index = degree).  No comparison."""
-        kids: list[Any] = [None] * x._deg
-        c = x._child
-        while c is not None:
-            kids[c._deg] = c
-            c = c._next
-        return kids
-
-    @staticmethod
-    def _detach(x: Any, kids: list[Any]) -> None:
-        """Cut x's children loose as detached roots; x becomes childless."""
-        for c in kids:
-            c._prev = c._next = None
-        x._child = None
-
-    # Precondition: x is a child of p.  Swaps their places (x goes up, p down,
-    # each taking the other's links and degree).  O(1), no comparison.
-    def _swap_up(self, x: Any, p: Any) -> None:
-        pp, pn, pc, pd = p._prev, p._next, p._child, p._deg
-        xp, xn, xc, xd = x._prev, x._next, x._child, x._deg
-        x._prev, x._next, x._child, x._deg = pp, pn, (p if pc is x else pc), pd
-        p._prev, p._next, p._child, p._deg = (x if xp is p else xp), xn, xc, xd
-        if pp is None:
-            self._roots[pd] = x
-        elif pp._child is p:
-            pp._child = x
-        else:
-            pp._next = x
-        if pn is not None:
-            pn._prev = x
-        if pc is not x:
-            pc._prev = x
-        if xp is not p:
-            xp._next = p
-        if xn is not None:
-            xn._prev = p
-        if xc is not None:
-            xc._prev = p
-
-    # --- SPI ---------------------------------------------------------------
-    def _meld_from(self, other: BinomialHeap[K, V]) -> None:
-        links: list[Any] = []
-        roots = _plan(self._roots, other._roots, -1, links)
-        a, b = self._min, other._min
-        mn = b if a is None or b._k < a._k else a
-        self._roots = roots
-        self._min = _apply(links, mn)
-
-    def _reset(self) -> None:
-        self._roots = [None]
-        self._min = None
-
-    def _kill(self, h: Any) -> None:
-        h._tok = h._child = h._next = h._prev = None
-        h._deg = 0
-
-    def _handles(self) -> Iterator[_Node[K, V]]:
-        stack = [r for r in self._roots if r is not None]
-        while stack:
-            x = stack.pop()
-            yield x
-            if x._next is not None:
-                stack.append(x._next)
-            if x._child is not None:
-                stack.append(x._child)
-
-    def _export(self) -> tuple[list[Any], tuple[list[int], int]]:
-        """Preorder per tree (children left to right); the layout is the root
-        degrees (a binomial tree's shape follows from its degree) and the
-        index of the min.  No comparison, no recursion."""
-        out: list[Any] = []
-        degs: list[int] = []
-        for r in self._roots:
-            if r is None:
-                continue
-            degs.append(r._deg)
-            stack = [r]
-            while stack:
-                x = stack.pop()
-                out.append(x)
-                if x._next is not None and x is not r:
-                    stack.append(x._next)
-                if x._child is not None:
-                    stack.append(x._child)
-        at = next((i for i, x in enumerate(out) if x is self._min), -1)
-        return out, (degs, at)
-
-    def _import(self, handles: list[Any], layout: tuple[list[int], int]) -> None:
-        degs, at = layout
-        roots: list[Any] = [None] * (max(degs, default=-1) + 2)
-        it = iter(handles)
-        for d in degs:
-            r = next(it)
-            r._prev = r._next = None
-            roots[d] = r
-            # stack entries: [node, degree of its next child, its last child]
-            stack: list[list[Any]] = [[r, d - 1, None]]
-            r._child = None
-            r._deg = d
-            while stack:
-                top = stack[-1]
-                if top[1] < 0:
-                    stack.pop()
-                    continue
-                x = next(it)
-                x._child = x._next = None
-                x._deg = top[1]
-                last = top[2]
-                if last is None:
-                    top[0]._child = x
-                    x._prev = top[0]
-                else:
-                    last._next = x
-                    x._prev = last
-                top[2] = x
-                top[1] -= 1
-                stack.append([x, x._deg - 1, None])
-        self._roots = roots
-        self._min = handles[at] if handles else None
-
-    def _map_order(self, fn: Callable[[Any, Any], Any]) -> None:
-        for x in self._handles():
-            x._k = fn(x._k, x._key)
+        def remove(self, handle: Handle[K, V]) -> tuple[K, V]: ...
 
     # Rules, checks and drawing (rules.py); audit hooks (cost.py).
     def _layout_problem(self, handles: list[Any], layout: Any) -> str | None:

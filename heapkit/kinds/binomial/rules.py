@@ -11,7 +11,7 @@ from collections.abc import Iterator
 from typing import Any
 
 from heapkit._core import HandleBase, seen_path
-from heapkit.kinds.binomial.forest import _up
+from heapkit.kinds.binomial.forest import _Node, _up
 
 __all__ = ["RULES", "dot_edges", "layout_problem", "path_of", "survey", "survey_local", "touched"]
 
@@ -196,7 +196,7 @@ def survey_local(heap: Any, report: Any, touched: Any, handle: Any) -> None:
     _survey_roots(heap, report)
     nodes = [r for r in heap._roots if r is not None]
     for x in [*touched, handle]:
-        if not isinstance(x, HandleBase) or x._tok is None:
+        if not isinstance(x, _Node) or x._tok is None:
             continue  # dead (popped, removed), or not a node (meld's other heap)
         _link_check(heap, report, x)
         guard = heap._n + 1
