@@ -19,7 +19,11 @@ __all__ = ["MODULES", "StaleBuildError", "running_compiled", "stale_extensions"]
 MODULES: tuple[str, ...] = (
     "heapkit._core",
     "heapkit.bench.graphs",
+    "heapkit.kinds.hollow.core",
+    "heapkit.kinds.hollow.dag",
     "heapkit.kinds.pairing.links",
+    "heapkit.kinds.rank_pairing.core",
+    "heapkit.kinds.rank_pairing.cuts",
 )
 
 _SUFFIXES = tuple(importlib.machinery.EXTENSION_SUFFIXES)
