@@ -80,15 +80,12 @@ def _consolidate(heap: _RankPairingCore, m: _Node) -> None:
         top = -1
         if out:
             # ring the roots and find the least in one loop (saves ~5% of a pop)
-            best = prev = out[0]
+            it = iter(out)
+            best = prev = next(it)
             last = out[-1]
             best._prev = last
             last._next = best
-            i: int = 1
-            n: int = len(out)
-            while i < n:
-                u = out[i]
-                i += 1
+            for u in it:
                 u._prev = prev
                 prev._next = u
                 prev = u
