@@ -28,6 +28,11 @@ MODULES: tuple[str, ...] = (
     "heapkit.kinds.fibonacci.moves",
     "heapkit.kinds.binomial.forest",
     "heapkit.kinds.binomial.moves",
+    "heapkit.kinds.hollow.core",
+    "heapkit.kinds.hollow.dag",
+    "heapkit.kinds.pairing.links",
+    "heapkit.kinds.rank_pairing.core",
+    "heapkit.kinds.rank_pairing.cuts",
 )
 
 _SUFFIXES = tuple(importlib.machinery.EXTENSION_SUFFIXES)

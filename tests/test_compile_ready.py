@@ -6,6 +6,7 @@ from __future__ import annotations
 import ast
 import copy
 import gc
+import importlib
 import pickle
 import weakref
 from pathlib import Path
@@ -136,18 +137,36 @@ def test_copies_and_pickles_are_instances_of_the_public_class(name: str) -> None
     assert sorted(x.key for x in copy.copy(h)) == sorted([5, 2, 7])  # sorted(): outside check
 
 
-def test_pairing_core_is_never_the_class_of_a_heap() -> None:
+#: The compiled cores: kind, module, core class, node classes (sealed: never subclassed).
+CORES = [
+    ("pairing", "heapkit.kinds.pairing.links", "_PairingCore", ("_Node",)),
+    ("rank-pairing", "heapkit.kinds.rank_pairing.core", "_RankPairingCore", ()),
+    ("rank-pairing", "heapkit.kinds.rank_pairing.cuts", None, ("_Node",)),
+    ("hollow", "heapkit.kinds.hollow.core", "_HollowCore", ()),
+    ("hollow", "heapkit.kinds.hollow.dag", None, ("Node", "_Entry")),
+]
+
+
+@pytest.mark.parametrize(("name", "module", "core", "nodes"), CORES)
+def test_compiled_cores_are_never_the_class_of_a_heap(
+    name: str, module: str, core: str | None, nodes: tuple[str, ...]
+) -> None:
     """Modes switch ``__class__``; on an instance of the compiled core itself compiled callers
     would keep the core's methods (docs/compiled-build.md §4), so every constructor path
     makes the public class."""
-    from heapkit.kinds.pairing import PairingHeap
-    from heapkit.kinds.pairing.links import _Node, _PairingCore
-
-    h = PairingHeap([(3, "c"), (1, "a")])
-    made = [h, h._spawn(), copy.copy(h), copy.deepcopy(h), pickle.loads(pickle.dumps(h)), heapkit.new("pairing")]
+    assert module in MODULES
+    mod = importlib.import_module(module)
+    cls = heapkit.KINDS[name]
+    h: Any = cls([(3, "c"), (1, "a")])
+    made = [h, h._spawn(), copy.copy(h), copy.deepcopy(h), pickle.loads(pickle.dumps(h)), heapkit.new(name)]
+    assert all(type(other) is cls for other in made)
+    made.append(checked(cls([(2, "b")])))  # a mode layer: an interpreted subclass of cls
     for other in made:
-        assert type(other) is PairingHeap and type(other) is not _PairingCore
-    assert _Node.__subclasses__() == []  # sealed: compiled with no flag for subclasses
+        assert isinstance(other, cls)
+        if core is not None:
+            assert type(other) is not getattr(mod, core) and isinstance(other, getattr(mod, core))
+    for node in nodes:
+        assert getattr(mod, node).__subclasses__() == []  # sealed: compiled with no flag for subclasses
 
 
 def test_pure_switch_matches_the_build() -> None:

@@ -1,7 +1,8 @@
 """The hollow heap kind (``hollow``): Hansen, Kaplan, Tarjan and Zwick's hollow heap.
 
-Rooms: ``heap.py`` the operations, ``dag.py`` the DAG's nodes, child lists and
-delete-root linking, ``rules.py`` the invariants (survey, checks), ``cost.py``
+Rooms: ``heap.py`` the public class (interpreted), ``core.py`` the operations and
+``dag.py`` the DAG's nodes, entries, child lists and delete-root linking (both
+compiled in the compiled build), ``rules.py`` the invariants (survey, checks), ``cost.py``
 what the auditor asks.
 """
 
