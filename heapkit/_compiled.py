@@ -30,7 +30,6 @@ MODULES: tuple[str, ...] = (
     "heapkit.kinds.binomial.moves",
     "heapkit.kinds.hollow.core",
     "heapkit.kinds.hollow.dag",
-    "heapkit.kinds.pairing.links",
     "heapkit.kinds.rank_pairing.core",
     "heapkit.kinds.rank_pairing.cuts",
 )

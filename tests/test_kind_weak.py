@@ -288,24 +288,3 @@ def test_the_audit_unit_is_the_comparisons_made() -> None:
                 h.remove(x)
         # Source: the Counted key itself (heapkit.bench.measure), counting every `<`.
         assert h._work - before == Counted.count, step
-
-
-def test_every_weak_heap_is_a_weakheap_and_never_the_compiled_core() -> None:
-    """Modes switch ``__class__``; on an instance of the compiled core itself compiled callers
-    would keep the core's methods (docs/compiled-build.md §4), so every constructor path
-    makes the public class.  ``joins._PURE`` (handles made without their constructor) is
-    true only where the module runs as source."""
-    import copy
-    import pickle
-
-    from heapkit._compiled import _is_extension
-    from heapkit.kinds.weak import joins
-
-    h = WeakHeap([(3, "c"), (1, "a")])
-    made = [h, h._spawn(), copy.copy(h), copy.deepcopy(h), pickle.loads(pickle.dumps(h)), heapkit.new("weak")]
-    for other in made:
-        assert type(other) is WeakHeap and type(other) is not joins._WeakCore
-    assert joins._PURE is not _is_extension(joins.__spec__)
-    x = h.push(0, "z")
-    assert (x.key, x.value, x.alive, x._i) == (0, "z", True, 2)
-    assert h.pop() == (0, "z")  # Source: min() of the keys 3, 1, 0
