@@ -20,6 +20,7 @@ MODULES: tuple[str, ...] = (
     "heapkit._core",
     "heapkit.bench.graphs",
     "heapkit.kinds.pairing.links",
+    "heapkit.kinds.radix.buckets",
 )
 
 _SUFFIXES = tuple(importlib.machinery.EXTENSION_SUFFIXES)
