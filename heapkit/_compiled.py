@@ -19,6 +19,8 @@ __all__ = ["MODULES", "StaleBuildError", "running_compiled", "stale_extensions"]
 MODULES: tuple[str, ...] = (
     "heapkit._core",
     "heapkit.bench.graphs",
+    "heapkit.kinds.lazy.entries",
+    "heapkit.kinds.lazy.ops",
     "heapkit.kinds.pairing.links",
     "heapkit.kinds.radix.buckets",
 )

@@ -4,21 +4,21 @@ An entry is a tuple ``(k, handle, owner token)`` compared by the C ``heapq``
 functions.  ``k`` is an exact int/float/str key (their ``==`` and ``<`` are
 unobservable) or a wrapper that is never equal, so tuple comparison calls no
 user ``==``; tied bare keys compare the handles, and no handle is smaller.
+
+Compiled by mypyc in the compiled build (with ``ops.py``, the operations): no ``Generic``,
+no ``__weakref__``, no ``TYPE_CHECKING``/``else``; the handle class is sealed.
 """
 
 from __future__ import annotations
 
 import operator
-from typing import Any, Generic, TypeVar
+from typing import Any, Final
 
 from heapkit._core import WRAPPERS, LeafHandle, Stable, seq_of
 
-K = TypeVar("K")
-V = TypeVar("V")
-
 #: Key types whose ``==`` and ``<`` are unobservable: they sit bare in entries
 #: (Dijkstra, 10^5 nodes, float keys: 4.0 s bare, 6.0 s with every key wrapped).
-_RAW = frozenset((int, float, str))
+_RAW: Final = frozenset((int, float, str))
 
 
 class _Ord:
@@ -74,28 +74,31 @@ def _normal(o: Any) -> Any:
     return _Ord(o)
 
 
-class _Handle(LeafHandle, Generic[K, V]):
+class _Handle(LeafHandle):
     """Handle: ``_e`` is the current entry while alive, the last ordering object once dead.
 
     Two slots keep it at 48 bytes.  Handles only meet in a comparison when two
-    entries have equal bare keys; then neither is smaller.
+    entries have equal bare keys; then neither is smaller.  Sealed: never subclass it.
     """
 
     __slots__ = ("_e", "value")
     _e: Any
-    value: V
+    value: Any
 
-    # A builtin does not bind: called as not_(other), False as handles are truthy.
-    # A tied tuple comparison takes 250 ns with it, 285 ns with ``def __lt__``.
-    __lt__ = __gt__ = operator.not_
+    # False as handles are truthy.  The pure build replaces both with operator.not_ below.
+    def __lt__(self, other: object) -> bool:
+        return not other
+
+    def __gt__(self, other: object) -> bool:
+        return not other
 
     @property
-    def key(self) -> K:
+    def key(self) -> Any:
         """The entry's key (read-only; change it through the heap)."""
         e = self._e
         if type(e) is tuple:
             e = e[0]
-        return _user_key(e)  # type: ignore[no-any-return]
+        return _user_key(e)
 
     @property
     def alive(self) -> bool:
@@ -112,20 +115,29 @@ class _Handle(LeafHandle, Generic[K, V]):
         return (_revive, (_user_key(k), self.value, seq_of(k)))
 
 
-def _fresh(k: Any, value: Any) -> _Handle[Any, Any]:
-    h: _Handle[Any, Any] = _Handle()
+#: True when this module runs as Python source (a compiled module's file is the extension).
+_PURE: Final = __file__.endswith(".py")
+if _PURE:
+    # A builtin does not bind: called as not_(other).  A tied tuple comparison takes
+    # 250 ns with it, 285 ns with ``def __lt__`` (pure build; compiled, the methods are C).
+    setattr(_Handle, "__lt__", operator.not_)  # noqa: B010 - mypy refuses assigning a method
+    setattr(_Handle, "__gt__", operator.not_)  # noqa: B010
+
+
+def _fresh(k: Any, value: Any) -> _Handle:
+    h = _Handle()
     h._e = k
     h.value = value
     return h
 
 
-def _revive(key: Any, value: Any, seq: int | None) -> _Handle[Any, Any]:
+def _revive(key: Any, value: Any, seq: int | None) -> _Handle:
     """Rebuild a detached, dead handle (its heap relinks it)."""
     return _fresh(key if seq is None else Stable(key, seq), value)
 
 
 #: Stands in the stale entries a copy or unpickle rebuilds (never live).
-_GHOST: _Handle[Any, Any] = _fresh(None, None)
+_GHOST: Final = _fresh(None, None)
 
 
 # Precondition: x was appended by heappush (now done or failed part-way) and
