@@ -49,6 +49,10 @@ class _Ord:
     def __repr__(self) -> str:
         return f"_Ord({self.key!r})"
 
+    # Explicit: compiled, the default (``_Ord.__new__`` without arguments) fails.
+    def __reduce__(self) -> tuple[Any, ...]:
+        return (_Ord, (self.key,))
+
 
 def _order(key: Any) -> Any:
     """The ordering object of ``key`` in a heap that compares keys bare."""
@@ -122,6 +126,10 @@ if _PURE:
     # 250 ns with it, 285 ns with ``def __lt__`` (pure build; compiled, the methods are C).
     setattr(_Handle, "__lt__", operator.not_)  # noqa: B010 - mypy refuses assigning a method
     setattr(_Handle, "__gt__", operator.not_)  # noqa: B010
+else:
+    # mypyc drops ``__slots__`` from a compiled class (its fields are C members, no
+    # ``__dict__`` either); name them again so the handle reads the same on both builds.
+    setattr(_Handle, "__slots__", ("_e", "value"))  # noqa: B010
 
 
 def _fresh(k: Any, value: Any) -> _Handle:
@@ -196,15 +204,17 @@ def rebuild(handles: list[Any], layout: list[Any], tok: Any, wrap: Any) -> tuple
     a: list[Any] = []
     it = iter(handles)
     stale = 0
+    # The handle takes its entry back from the list: compiled, a tuple put in a local is
+    # narrowed to its fixed-length type (a C struct, even under a ``tuple[Any, ...]``
+    # declaration) and boxed anew at each use, so ``h._e is e`` failed.
     for o in layout:
         if o is None:
             h = next(it)
-            e = (_remade(h._e, wrap), h, tok)
-            h._e = e
+            a.append((_remade(h._e, wrap), h, tok))
+            h._e = a[-1]
         else:
-            e = (_remade(o, wrap), _GHOST, tok)
+            a.append((_remade(o, wrap), _GHOST, tok))
             stale += 1
-        a.append(e)
     return a, stale
 
 

@@ -143,7 +143,8 @@ class _RadixCore(HeapBase):
         3
         """
         last = self._last
-        if (type(key) is not int and (isinstance(key, bool) or not isinstance(key, int))) or key < last:
+        t = type(key)  # not isinstance(key, int): compiled, key would become a C int (an int subclass's `<` skipped)
+        if (t is not int and (t is bool or not issubclass(t, int))) or key < last:
             raise _key_error("push", key, last)
         ik: int = key  # C integers in the compiled build (a small int needs no object)
         il: int = last
@@ -224,7 +225,8 @@ class _RadixCore(HeapBase):
             self._claim(handle, "decrease_key")
         x: _Item = handle
         last = self._last
-        if (type(key) is not int and (isinstance(key, bool) or not isinstance(key, int))) or key < last:
+        t = type(key)  # as in push
+        if (t is not int and (t is bool or not issubclass(t, int))) or key < last:
             raise _key_error("decrease_key", key, last)
         ik: int = key  # C integers in the compiled build (a small int needs no object)
         il: int = last
@@ -263,7 +265,8 @@ class _RadixCore(HeapBase):
             self._claim(handle, "change_key")
         x: _Item = handle
         last = self._last
-        if (type(key) is not int and (isinstance(key, bool) or not isinstance(key, int))) or key < last:
+        t = type(key)  # as in push
+        if (t is not int and (t is bool or not issubclass(t, int))) or key < last:
             raise _key_error("change_key", key, last)
         ik: int = key  # C integers in the compiled build (a small int needs no object)
         il: int = last
