@@ -91,9 +91,27 @@ def _settle(heap: _RadixCore) -> list[_Item]:
     b0 = buckets[0]
     if b0:
         return b0
-    # next(filter(None, ...)) finds the first non-empty bucket in C: 22% faster than a loop
-    src: list[_Item] = next(filter(None, buckets))
-    m: _Item = min(src, key=_order)
+    src: list[_Item]
+    if _PURE:
+        # next(filter(None, ...)) finds the first non-empty bucket in C: 22% faster than a loop
+        src = next(filter(None, buckets))
+    else:
+        i = 1
+        while not buckets[i]:
+            i += 1
+        src = buckets[i]
+    m: _Item
+    if _PURE:
+        m = min(src, key=_order)
+    else:
+        # min()'s comparisons, in its order, without a key-function call per entry
+        m = src[0]
+        least = m._k
+        for j in range(1, len(src)):
+            y = src[j]
+            if y._k < least:
+                m = y
+                least = y._k
     mk = m._key
     heap._last = mk
     last: int = mk
@@ -221,9 +239,11 @@ class _RadixCore(HeapBase):
         >>> x = h.push(8, 'h'); h.decrease_key(x, 2); h.peek() is x
         True
         """
-        if type(handle) is not _Item or handle._tok is not self._tok:
-            self._claim(handle, "decrease_key")
+        if type(handle) is not _Item:
+            self._claim(handle, "decrease_key")  # raises: not a handle of this heap
         x: _Item = handle
+        if x._tok is not self._tok:
+            self._claim(x, "decrease_key")
         last = self._last
         t = type(key)  # as in push
         if (t is not int and (t is bool or not issubclass(t, int))) or key < last:
@@ -261,9 +281,11 @@ class _RadixCore(HeapBase):
         >>> x = h.push(1, 'a'); h.change_key(x, 9); h.pop()
         (4, 'd')
         """
-        if type(handle) is not _Item or handle._tok is not self._tok:
-            self._claim(handle, "change_key")
+        if type(handle) is not _Item:
+            self._claim(handle, "change_key")  # raises: not a handle of this heap
         x: _Item = handle
+        if x._tok is not self._tok:
+            self._claim(x, "change_key")
         last = self._last
         t = type(key)  # as in push
         if (t is not int and (t is bool or not issubclass(t, int))) or key < last:
@@ -292,9 +314,11 @@ class _RadixCore(HeapBase):
         >>> x = h.push(3, 'c'); h.remove(x), len(h)
         ((3, 'c'), 2)
         """
-        if type(handle) is not _Item or handle._tok is not self._tok:
-            self._claim(handle, "remove")
+        if type(handle) is not _Item:
+            self._claim(handle, "remove")  # raises: not a handle of this heap
         x: _Item = handle
+        if x._tok is not self._tok:
+            self._claim(x, "remove")
         ik: int = x._key
         il: int = self._last
         _take(self._buckets[(ik ^ il).bit_length()], x)
