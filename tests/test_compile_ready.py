@@ -6,7 +6,9 @@ from __future__ import annotations
 import ast
 import copy
 import gc
+import importlib
 import pickle
+import sys
 import weakref
 from pathlib import Path
 from typing import Any, Generic
@@ -43,8 +45,7 @@ def test_compiled_modules_keep_the_mypyc_rules(module: str) -> None:
     tree = _source(module)
     # object.__new__ is allowed behind the pure-build switch only (never run when compiled).
     switched = any(
-        isinstance(n, ast.AnnAssign | ast.Assign) and "_PURE" in ast.unparse(n).split("=")[0]
-        for n in tree.body
+        isinstance(n, ast.AnnAssign | ast.Assign) and "_PURE" in ast.unparse(n).split("=")[0] for n in tree.body
     )
     problems: list[str] = []
     for node in ast.walk(tree):
@@ -137,26 +138,46 @@ def test_copies_and_pickles_are_instances_of_the_public_class(name: str) -> None
     assert sorted(x.key for x in copy.copy(h)) == sorted([5, 2, 7])  # sorted(): outside check
 
 
-def test_pairing_core_is_never_the_class_of_a_heap() -> None:
+#: Kinds with a compiled core: (kind, module of the core, core class, handle class).
+COMPILED_CORES = [
+    ("pairing", "heapkit.kinds.pairing.links", "_PairingCore", "_Node"),
+    ("lazy", "heapkit.kinds.lazy.ops", "_LazyCore", "_Handle"),
+    ("radix", "heapkit.kinds.radix.buckets", "_RadixCore", "_Item"),
+]
+
+
+@pytest.mark.parametrize(("name", "module", "core", "node"), COMPILED_CORES)
+def test_compiled_core_is_never_the_class_of_a_heap(name: str, module: str, core: str, node: str) -> None:
     """Modes switch ``__class__``; on an instance of the compiled core itself compiled callers
     would keep the core's methods (docs/compiled-build.md §4), so every constructor path
     makes the public class."""
-    from heapkit.kinds.pairing import PairingHeap
-    from heapkit.kinds.pairing.links import _Node, _PairingCore
-
-    h = PairingHeap([(3, "c"), (1, "a")])
-    made = [h, h._spawn(), copy.copy(h), copy.deepcopy(h), pickle.loads(pickle.dumps(h)), heapkit.new("pairing")]
+    mod = importlib.import_module(module)
+    cls = heapkit.KINDS[name]
+    h = cls([(3, "c"), (1, "a")])
+    made = [h, h._spawn(), copy.copy(h), copy.deepcopy(h), pickle.loads(pickle.dumps(h)), heapkit.new(name)]
     for other in made:
-        assert type(other) is PairingHeap and type(other) is not _PairingCore
-    assert _Node.__subclasses__() == []  # sealed: compiled with no flag for subclasses
+        assert type(other) is cls and type(other) is not getattr(mod, core)
+    handle = h.peek()
+    assert type(handle).__subclasses__() == []  # sealed: compiled with no flag for subclasses
+    assert type(handle) is getattr(sys.modules[handle.__module__], node)
+    assert handle.__module__ in MODULES  # the handle class is compiled with its core
 
 
-def test_pure_switch_matches_the_build() -> None:
-    """pairing.links makes nodes with object.__new__ only when it runs as source."""
+@pytest.mark.parametrize(
+    ("name", "module"),
+    [
+        ("pairing", "heapkit.kinds.pairing.links"),
+        ("lazy", "heapkit.kinds.lazy.entries"),
+        ("radix", "heapkit.kinds.radix.buckets"),
+    ],
+)
+def test_pure_switch_matches_the_build(name: str, module: str) -> None:
+    """The pure-build fast paths (object.__new__, builtin comparisons, filter/min) run only
+    when the module runs as source."""
     from heapkit._compiled import _is_extension
-    from heapkit.kinds.pairing import links as pairing_links
 
-    assert pairing_links._PURE is not _is_extension(pairing_links.__spec__)
-    h = heapkit.PairingHeap()
+    mod = importlib.import_module(module)
+    assert mod._PURE is not _is_extension(mod.__spec__)
+    h = heapkit.KINDS[name]()
     x = h.push(2, "b")
     assert (x.key, x.value, x.alive) == (2, "b", True)
