@@ -32,6 +32,9 @@ MODULES: tuple[str, ...] = (
     "heapkit.kinds.hollow.dag",
     "heapkit.kinds.rank_pairing.core",
     "heapkit.kinds.rank_pairing.cuts",
+    "heapkit.kinds.lazy.entries",
+    "heapkit.kinds.lazy.ops",
+    "heapkit.kinds.radix.buckets",
 )
 
 _SUFFIXES = tuple(importlib.machinery.EXTENSION_SUFFIXES)

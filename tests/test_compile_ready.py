@@ -152,6 +152,9 @@ CORES = [
     ("binary", "heapkit.kinds.dary.core", "_DaryCore", ()),  # binary is the d-ary heap at arity 2
     ("dary", "heapkit.kinds.dary.slot", None, ("_Slot",)),
     ("weak", "heapkit.kinds.weak.joins", "_WeakCore", ()),
+    ("lazy", "heapkit.kinds.lazy.ops", "_LazyCore", ()),
+    ("lazy", "heapkit.kinds.lazy.entries", None, ("_Handle",)),
+    ("radix", "heapkit.kinds.radix.buckets", "_RadixCore", ("_Item",)),
 ]
 
 
@@ -166,8 +169,10 @@ def test_compiled_cores_are_never_the_class_of_a_heap(
     mod = importlib.import_module(module)
     cls = heapkit.KINDS[name]
     h: Any = cls([(3, "c"), (1, "a")])
-    made = [h, h._spawn(), copy.copy(h), copy.deepcopy(h), pickle.loads(pickle.dumps(h)), heapkit.new(name)]
+    made = [h, copy.copy(h), copy.deepcopy(h), pickle.loads(pickle.dumps(h)), heapkit.new(name)]
     assert all(type(other) is cls for other in made)
+    made.append(h._spawn())  # the family's class (binary spawns a DaryHeap: they meld together)
+    assert type(made[-1]) is h._family()
     made.append(checked(cls([(2, "b")])))  # a mode layer: an interpreted subclass of cls
     for other in made:
         assert isinstance(other, cls)

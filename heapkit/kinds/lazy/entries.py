@@ -4,21 +4,21 @@ An entry is a tuple ``(k, handle, owner token)`` compared by the C ``heapq``
 functions.  ``k`` is an exact int/float/str key (their ``==`` and ``<`` are
 unobservable) or a wrapper that is never equal, so tuple comparison calls no
 user ``==``; tied bare keys compare the handles, and no handle is smaller.
+
+Compiled by mypyc in the compiled build (with ``ops.py``, the operations): no ``Generic``,
+no ``__weakref__``, no ``TYPE_CHECKING``/``else``; the handle class is sealed.
 """
 
 from __future__ import annotations
 
 import operator
-from typing import Any, Generic, TypeVar
+from typing import Any, Final
 
 from heapkit._core import WRAPPERS, LeafHandle, Stable, seq_of
 
-K = TypeVar("K")
-V = TypeVar("V")
-
 #: Key types whose ``==`` and ``<`` are unobservable: they sit bare in entries
 #: (Dijkstra, 10^5 nodes, float keys: 4.0 s bare, 6.0 s with every key wrapped).
-_RAW = frozenset((int, float, str))
+_RAW: Final = frozenset((int, float, str))
 
 
 class _Ord:
@@ -49,6 +49,10 @@ class _Ord:
     def __repr__(self) -> str:
         return f"_Ord({self.key!r})"
 
+    # Explicit: compiled, the default (``_Ord.__new__`` without arguments) fails.
+    def __reduce__(self) -> tuple[Any, ...]:
+        return (_Ord, (self.key,))
+
 
 def _order(key: Any) -> Any:
     """The ordering object of ``key`` in a heap that compares keys bare."""
@@ -74,28 +78,31 @@ def _normal(o: Any) -> Any:
     return _Ord(o)
 
 
-class _Handle(LeafHandle, Generic[K, V]):
+class _Handle(LeafHandle):
     """Handle: ``_e`` is the current entry while alive, the last ordering object once dead.
 
     Two slots keep it at 48 bytes.  Handles only meet in a comparison when two
-    entries have equal bare keys; then neither is smaller.
+    entries have equal bare keys; then neither is smaller.  Sealed: never subclass it.
     """
 
     __slots__ = ("_e", "value")
     _e: Any
-    value: V
+    value: Any
 
-    # A builtin does not bind: called as not_(other), False as handles are truthy.
-    # A tied tuple comparison takes 250 ns with it, 285 ns with ``def __lt__``.
-    __lt__ = __gt__ = operator.not_
+    # False as handles are truthy.  The pure build replaces both with operator.not_ below.
+    def __lt__(self, other: object) -> bool:
+        return not other
+
+    def __gt__(self, other: object) -> bool:
+        return not other
 
     @property
-    def key(self) -> K:
+    def key(self) -> Any:
         """The entry's key (read-only; change it through the heap)."""
         e = self._e
         if type(e) is tuple:
             e = e[0]
-        return _user_key(e)  # type: ignore[no-any-return]
+        return _user_key(e)
 
     @property
     def alive(self) -> bool:
@@ -112,20 +119,33 @@ class _Handle(LeafHandle, Generic[K, V]):
         return (_revive, (_user_key(k), self.value, seq_of(k)))
 
 
-def _fresh(k: Any, value: Any) -> _Handle[Any, Any]:
-    h: _Handle[Any, Any] = _Handle()
+#: True when this module runs as Python source (a compiled module's file is the extension).
+_PURE: Final = __file__.endswith(".py")
+if _PURE:
+    # A builtin does not bind: called as not_(other).  A tied tuple comparison takes
+    # 250 ns with it, 285 ns with ``def __lt__`` (pure build; compiled, the methods are C).
+    setattr(_Handle, "__lt__", operator.not_)  # noqa: B010 - mypy refuses assigning a method
+    setattr(_Handle, "__gt__", operator.not_)  # noqa: B010
+else:
+    # mypyc drops ``__slots__`` from a compiled class (its fields are C members, no
+    # ``__dict__`` either); name them again so the handle reads the same on both builds.
+    setattr(_Handle, "__slots__", ("_e", "value"))  # noqa: B010
+
+
+def _fresh(k: Any, value: Any) -> _Handle:
+    h = _Handle()
     h._e = k
     h.value = value
     return h
 
 
-def _revive(key: Any, value: Any, seq: int | None) -> _Handle[Any, Any]:
+def _revive(key: Any, value: Any, seq: int | None) -> _Handle:
     """Rebuild a detached, dead handle (its heap relinks it)."""
     return _fresh(key if seq is None else Stable(key, seq), value)
 
 
 #: Stands in the stale entries a copy or unpickle rebuilds (never live).
-_GHOST: _Handle[Any, Any] = _fresh(None, None)
+_GHOST: Final = _fresh(None, None)
 
 
 # Precondition: x was appended by heappush (now done or failed part-way) and
@@ -184,15 +204,17 @@ def rebuild(handles: list[Any], layout: list[Any], tok: Any, wrap: Any) -> tuple
     a: list[Any] = []
     it = iter(handles)
     stale = 0
+    # The handle takes its entry back from the list: compiled, a tuple put in a local is
+    # narrowed to its fixed-length type (a C struct, even under a ``tuple[Any, ...]``
+    # declaration) and boxed anew at each use, so ``h._e is e`` failed.
     for o in layout:
         if o is None:
             h = next(it)
-            e = (_remade(h._e, wrap), h, tok)
-            h._e = e
+            a.append((_remade(h._e, wrap), h, tok))
+            h._e = a[-1]
         else:
-            e = (_remade(o, wrap), _GHOST, tok)
+            a.append((_remade(o, wrap), _GHOST, tok))
             stale += 1
-        a.append(e)
     return a, stale
 
 
