@@ -27,8 +27,8 @@ import heapkit
 from heapkit import _core
 from heapkit.audit import Counted, attach, audit, configure, detach
 from heapkit.errors import BoundExceededError
+from heapkit.kinds.pairing.core import _link
 from heapkit.kinds.pairing.heap import PairingHeap
-from heapkit.kinds.pairing.links import _link
 from tests.kinds import NAMES, make, monotone
 from tests.test_audit_broken import NoCascadeFibonacciHeap, star_then_pop
 from tests.test_conformance import MonotoneMachine, ProtocolMachine

@@ -139,22 +139,22 @@ def test_copies_and_pickles_are_instances_of_the_public_class(name: str) -> None
 
 #: The compiled cores: kind, module, core class, node classes (sealed: never subclassed).
 CORES = [
-    ("pairing", "heapkit.kinds.pairing.links", "_PairingCore", ("_Node",)),
+    ("pairing", "heapkit.kinds.pairing.core", "_PairingCore", ("_Node",)),
     ("rank-pairing", "heapkit.kinds.rank_pairing.core", "_RankPairingCore", ()),
     ("rank-pairing", "heapkit.kinds.rank_pairing.cuts", None, ("_Node",)),
     ("hollow", "heapkit.kinds.hollow.core", "_HollowCore", ()),
     ("hollow", "heapkit.kinds.hollow.dag", None, ("Node", "_Entry")),
-    ("fibonacci", "heapkit.kinds.fibonacci.moves", "_FibonacciCore", ()),
+    ("fibonacci", "heapkit.kinds.fibonacci.core", "_FibonacciCore", ()),
     ("fibonacci", "heapkit.kinds.fibonacci.rings", None, ("_Node",)),
-    ("binomial", "heapkit.kinds.binomial.moves", "_BinomialCore", ()),
+    ("binomial", "heapkit.kinds.binomial.core", "_BinomialCore", ()),
     ("binomial", "heapkit.kinds.binomial.forest", None, ("_Node",)),
     ("dary", "heapkit.kinds.dary.core", "_DaryCore", ()),
     ("binary", "heapkit.kinds.dary.core", "_DaryCore", ()),  # binary is the d-ary heap at arity 2
     ("dary", "heapkit.kinds.dary.slot", None, ("_Slot",)),
-    ("weak", "heapkit.kinds.weak.joins", "_WeakCore", ()),
-    ("lazy", "heapkit.kinds.lazy.ops", "_LazyCore", ()),
+    ("weak", "heapkit.kinds.weak.core", "_WeakCore", ()),
+    ("lazy", "heapkit.kinds.lazy.core", "_LazyCore", ()),
     ("lazy", "heapkit.kinds.lazy.entries", None, ("_Handle",)),
-    ("radix", "heapkit.kinds.radix.buckets", "_RadixCore", ("_Item",)),
+    ("radix", "heapkit.kinds.radix.core", "_RadixCore", ("_Item",)),
 ]
 
 

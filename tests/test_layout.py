@@ -17,6 +17,7 @@ from typing import Any, Generic
 import pytest
 
 import heapkit
+from heapkit._compiled import MODULES
 from heapkit._face import HeapFace
 from heapkit.kinds import KINDS
 
@@ -41,9 +42,11 @@ def test_every_kind_is_a_package_with_its_rooms(kind: str) -> None:
     # the package imports the class: ``from heapkit.kinds.<kind> import <Class>``
     assert getattr(importlib.import_module(f"heapkit.kinds.{pkg}"), cls.__name__) is cls
     # binary is the d-ary heap at arity 2: its rules and costs are the d-ary heap's
-    rooms = ("heap",) if kind == "binary" else ("heap", "rules", "cost")
+    rooms = ("heap",) if kind == "binary" else ("heap", "core", "rules", "cost")
     for room in rooms:
         assert (KINDS_DIR / pkg / f"{room}.py").is_file(), f"{pkg}/{room}.py"
+    if kind != "binary":  # core.py is the hot path, compiled in the compiled build (issue 14)
+        assert f"heapkit.kinds.{pkg}.core" in MODULES
 
 
 def test_no_flat_kind_modules_are_left() -> None:

@@ -1,10 +1,10 @@
 """The binomial forest: the node, and the compare-first link planner.  Compiled by mypyc
-in the compiled build (with ``moves.py``).
+in the compiled build (with ``core.py``).
 
 Binary addition on root arrays (index = degree): ``_plan`` and ``_plan_push``
 only compare and record each link as ``(winner, loser)``; ``_apply`` then links
 without comparing.  So an exception from a key's ``<`` always strikes before
-anything moved.  Used by ``moves.py``, ``rules.py`` and ``cost.py``; no recursion anywhere.
+anything moved.  Used by ``core.py``, ``rules.py`` and ``cost.py``; no recursion anywhere.
 Rules for this module: nodes typed as their class, no ``Generic``, no ``__weakref__``, no
 ``TYPE_CHECKING``/``else``.
 """

@@ -58,8 +58,8 @@ from typing import TYPE_CHECKING, Any, ClassVar, TypeVar
 from heapkit._face import HeapFace
 from heapkit.kinds.binomial import cost as _cost
 from heapkit.kinds.binomial import rules as _rules
+from heapkit.kinds.binomial.core import _BinomialCore
 from heapkit.kinds.binomial.forest import _Node
-from heapkit.kinds.binomial.moves import _BinomialCore
 from heapkit.protocol import Handle
 
 __all__ = ["BinomialHeap"]
@@ -78,7 +78,7 @@ class BinomialHeap(HeapFace[K, V], _BinomialCore):
     ((1, 'i'), (2, 'b'), 1)
     """
 
-    __slots__ = ("__weakref__",)  # the core (moves.py, compiled) holds the fields
+    __slots__ = ("__weakref__",)  # the core (core.py, compiled) holds the fields
 
     KIND: ClassVar[str] = "binomial"
     BOUNDS: ClassVar[str] = "push O(1) amortized; push, meld, pop, remove, decrease_key, change_key O(log n) worst-case"

@@ -44,7 +44,7 @@ from typing import TYPE_CHECKING, Any, ClassVar, TypeVar
 from heapkit._face import HeapFace
 from heapkit.kinds.fibonacci import cost as _cost
 from heapkit.kinds.fibonacci import rules as _rules
-from heapkit.kinds.fibonacci.moves import _FibonacciCore
+from heapkit.kinds.fibonacci.core import _FibonacciCore
 from heapkit.kinds.fibonacci.rings import _Node
 from heapkit.protocol import Handle
 
@@ -64,7 +64,7 @@ class FibonacciHeap(HeapFace[K, V], _FibonacciCore):
     ((1, 'i'), (2, 'b'), 1)
     """
 
-    __slots__ = ("__weakref__",)  # the core (moves.py, compiled) holds the fields
+    __slots__ = ("__weakref__",)  # the core (core.py, compiled) holds the fields
 
     KIND: ClassVar[str] = "fibonacci"
     BOUNDS: ClassVar[str] = "push, meld O(1); decrease_key O(1) amortized; pop, remove, change_key O(log n) amortized"

@@ -1,6 +1,6 @@
 """The Fibonacci heap's node and rings: the node class, closing a ring, walking every
 node, and the flat export/import behind copy and pickle.  Compiled by mypyc in the
-compiled build (with ``moves.py``).
+compiled build (with ``core.py``).
 
 Nodes are :class:`_Node`: ``_left``/``_right`` (a circular doubly linked ring of
 siblings; a dead node's ring is itself), ``_parent``, ``_child``.  Loops with explicit

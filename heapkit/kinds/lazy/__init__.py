@@ -1,8 +1,10 @@
 """The lazy heap kind (``lazy``): the C ``heapq`` list, invalidating entries lazily.
 
-Rooms: ``heap.py`` the operations, ``entries.py`` the entries (ordering objects,
-the handle, failure repair, flat export/import), ``rules.py`` the invariants
-(loading, survey, checks, ``to_dot`` drawing), ``cost.py`` what the auditor asks.
+Rooms (the same in every kind): ``heap.py`` the public class (interpreted), ``core.py``
+the operations, ``entries.py`` the entries (ordering objects, the handle, failure
+repair, flat export/import) (compiled in the compiled build), ``rules.py`` the
+invariants (survey, checks, ``to_dot`` edges, loading), ``cost.py`` what the auditor
+asks (cost unit, potential, bounds).
 """
 
 from heapkit.kinds.lazy.heap import LazyHeap

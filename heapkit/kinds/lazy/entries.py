@@ -5,7 +5,7 @@ functions.  ``k`` is an exact int/float/str key (their ``==`` and ``<`` are
 unobservable) or a wrapper that is never equal, so tuple comparison calls no
 user ``==``; tied bare keys compare the handles, and no handle is smaller.
 
-Compiled by mypyc in the compiled build (with ``ops.py``, the operations): no ``Generic``,
+Compiled by mypyc in the compiled build (with ``core.py``, the operations): no ``Generic``,
 no ``__weakref__``, no ``TYPE_CHECKING``/``else``; the handle class is sealed.
 """
 

@@ -53,7 +53,7 @@ from typing import TYPE_CHECKING, Any, ClassVar, TypeVar
 from heapkit._face import HeapFace
 from heapkit.kinds.lazy import cost as _cost
 from heapkit.kinds.lazy import rules as _rules
-from heapkit.kinds.lazy.ops import _LazyCore
+from heapkit.kinds.lazy.core import _LazyCore
 from heapkit.protocol import Handle
 
 __all__ = ["LazyHeap"]
@@ -72,7 +72,7 @@ class LazyHeap(HeapFace[K, V], _LazyCore):
     [(1, 'i'), (2, 'b'), (5, 'e')]
     """
 
-    __slots__ = ("__weakref__",)  # the core (ops.py, compiled) holds the fields
+    __slots__ = ("__weakref__",)  # the core (core.py, compiled) holds the fields
     KIND: ClassVar[str] = "lazy"
     BOUNDS: ClassVar[str] = "push O(log n); pop, decrease_key, change_key O(log n) amortized; remove O(1) amortized"
     WORST_CASE: ClassVar[bool] = False

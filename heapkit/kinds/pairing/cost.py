@@ -14,7 +14,7 @@ import math
 from collections.abc import Iterable
 from typing import Any
 
-from heapkit.kinds.pairing.links import _children
+from heapkit.kinds.pairing.core import _children
 
 __all__ = ["COST_UNIT", "PHI_C", "POTENTIAL", "Sizes", "actual", "bound", "phi", "probe", "sizes"]
 

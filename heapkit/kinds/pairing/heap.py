@@ -39,7 +39,7 @@ from typing import TYPE_CHECKING, Any, ClassVar, TypeVar
 from heapkit._face import HeapFace
 from heapkit.kinds.pairing import cost as _cost
 from heapkit.kinds.pairing import rules as _rules
-from heapkit.kinds.pairing.links import _Node, _PairingCore
+from heapkit.kinds.pairing.core import _Node, _PairingCore
 from heapkit.protocol import Handle
 
 __all__ = ["PairingHeap"]
@@ -58,7 +58,7 @@ class PairingHeap(HeapFace[K, V], _PairingCore):
     ((1, 'i'), (2, 'b'), 1)
     """
 
-    __slots__ = ("__weakref__",)  # the core (links.py, compiled) holds the fields
+    __slots__ = ("__weakref__",)  # the core (core.py, compiled) holds the fields
 
     KIND: ClassVar[str] = "pairing"
     _NODE: ClassVar[type[Any]] = _Node

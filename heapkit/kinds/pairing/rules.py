@@ -28,8 +28,8 @@ from typing import Any
 
 from heapkit._core import seen_path
 from heapkit.kinds._shared_layout import forest_problem
+from heapkit.kinds.pairing.core import _children
 from heapkit.kinds.pairing.cost import Sizes
-from heapkit.kinds.pairing.links import _children
 
 __all__ = ["dot_edges", "path_up", "survey_local", "touched"]
 

@@ -53,7 +53,7 @@ from typing import TYPE_CHECKING, Any, ClassVar, TypeVar
 from heapkit._face import HeapFace
 from heapkit.kinds.radix import cost as _cost
 from heapkit.kinds.radix import rules as _rules
-from heapkit.kinds.radix.buckets import MAX_BITS, _Item, _RadixCore
+from heapkit.kinds.radix.core import MAX_BITS, _Item, _RadixCore
 from heapkit.protocol import Handle
 
 __all__ = ["MAX_BITS", "RadixHeap"]
@@ -77,7 +77,7 @@ class RadixHeap(HeapFace[K, V], _RadixCore):
     heapkit.errors.KeyOrderError: push: key 1 is too low: ... the last popped key, which is 5
     """
 
-    __slots__ = ("__weakref__",)  # the core (buckets.py, compiled) holds the fields
+    __slots__ = ("__weakref__",)  # the core (core.py, compiled) holds the fields
 
     KIND: ClassVar[str] = "radix"
     _NODE: ClassVar[type[Any]] = _Item

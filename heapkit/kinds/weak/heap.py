@@ -32,7 +32,7 @@ settle pays at most ``2m + 2L`` comparisons for them (amortized O(m)).  extend i
 meld of a heap of pending entries: the first settle is Dutton's O(n) construction,
 ``n - 1`` comparisons.
 
-The operations live in ``joins.py`` (compiled in the compiled build); this module keeps the
+The operations live in ``core.py`` (compiled in the compiled build); this module keeps the
 public class, its rules/cost hooks and its typed face.
 
 Exception safety: every sift collects its comparisons first (the d-ancestor chain or
@@ -57,7 +57,7 @@ from heapkit._face import HeapFace
 from heapkit.kinds.dary.slot import _Slot  # the array-position handle, shared with the d-ary heap
 from heapkit.kinds.weak import cost as _cost
 from heapkit.kinds.weak import rules as _rules
-from heapkit.kinds.weak.joins import _WeakCore, d_ancestor
+from heapkit.kinds.weak.core import _WeakCore, d_ancestor
 from heapkit.protocol import Handle
 
 __all__ = ["WeakHeap", "d_ancestor"]
@@ -79,7 +79,7 @@ class WeakHeap(HeapFace[K, V], _WeakCore):
     [(1, 'i'), (2, 'b'), (5, 'e')]
     """
 
-    __slots__ = ("__weakref__",)  # the core (joins.py, compiled) holds the fields
+    __slots__ = ("__weakref__",)  # the core (core.py, compiled) holds the fields
 
     KIND: ClassVar[str] = "weak"
     BOUNDS: ClassVar[str] = (
