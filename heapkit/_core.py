@@ -159,6 +159,19 @@ def seen_path(x: Any, seen: dict[int, tuple[Any, str]], missing: str = "?") -> l
     return steps
 
 
+def new_order(heap: HeapBase, h: Any, node: type[Any], key: Any, op: str) -> Any:
+    """Start of ``decrease_key``/``change_key``: claim ``h`` (a ``node`` of ``heap``), refuse
+    NaN, return the new ordering object.  A module function, not a method: compiled, it is a
+    direct C call (a method on ``self`` would be a Python call on the interpreted public
+    class).  Fibonacci, binomial, rank-pairing, hollow; the hottest kinds inline it."""
+    if type(h) is not node or h._tok is not heap._tok:
+        heap._claim(h, op)
+    if key != key:
+        raise nan_error(op, key)
+    w = heap._wrap
+    return key if w is None else w(key, h._k)
+
+
 @mypyc_attr(allow_interpreted_subclasses=True)
 class HeapBase:
     """Shared machinery of every kind (see the module docstring for the SPI).
@@ -244,17 +257,7 @@ class HeapBase:
     def _survey(self, report: Any) -> dict[str, Any]:
         raise NotImplementedError
 
-    _NODE: ClassVar[type[Any]] = HandleBase  # the kind's handle class: _new_order's fast path
-
-    def _new_order(self, h: Any, key: Any, op: str) -> Any:
-        """Start of ``decrease_key``/``change_key``: claim ``h``, refuse NaN, return the new
-        ordering object.  Fibonacci, binomial, rank-pairing, hollow; the hot kinds inline it."""
-        if type(h) is not self._NODE or h._tok is not self._tok:
-            self._claim(h, op)
-        if key != key:
-            raise nan_error(op, key)
-        w = self._wrap
-        return key if w is None else w(key, h._k)
+    _NODE: ClassVar[type[Any]] = HandleBase  # the kind's handle class
 
     def _kill(self, h: Any) -> None:
         """Make a handle dead and drop its links (kinds with more links extend it)."""

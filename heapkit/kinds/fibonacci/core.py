@@ -14,7 +14,7 @@ from __future__ import annotations
 from collections.abc import Callable, Iterable, Iterator
 from typing import Any
 
-from heapkit._core import HeapBase, empty_error, nan_error, upward_error
+from heapkit._core import HeapBase, empty_error, nan_error, new_order, upward_error
 from heapkit._mypyc import mypyc_attr
 from heapkit.kinds.fibonacci.rings import _Node, export, import_, ring, walk
 
@@ -308,14 +308,8 @@ class _FibonacciCore(HeapBase):
         >>> x = h.push(8, 'h'); h.decrease_key(x, 2); h.peek() is x
         True
         """
-        # Preamble inline (HeapBase._new_order is a method call: a Python call when compiled).
-        if type(handle) is not _Node or handle._tok is not self._tok:
-            self._claim(handle, "decrease_key")
+        k = new_order(self, handle, _Node, key, "decrease_key")
         x: _Node = handle
-        if key != key:
-            raise nan_error("decrease_key", key)
-        w = self._wrap
-        k = key if w is None else w(key, x._k)
         if x._k < k:
             raise upward_error(x, key)
         _lower(self, x, key, k)
@@ -328,13 +322,8 @@ class _FibonacciCore(HeapBase):
         >>> x = h.push(1, 'a'); h.change_key(x, 9); h.pop()
         (4, 'd')
         """
-        if type(handle) is not _Node or handle._tok is not self._tok:
-            self._claim(handle, "change_key")
+        k = new_order(self, handle, _Node, key, "change_key")
         x: _Node = handle
-        if key != key:
-            raise nan_error("change_key", key)
-        w = self._wrap
-        k = key if w is None else w(key, x._k)
         if x._k < k:
             _raise(self, x, key, k)
         else:

@@ -14,7 +14,7 @@ from __future__ import annotations
 from collections.abc import Callable, Iterable, Iterator
 from typing import Any
 
-from heapkit._core import HeapBase, empty_error, nan_error, upward_error
+from heapkit._core import HeapBase, empty_error, nan_error, new_order, upward_error
 from heapkit._mypyc import mypyc_attr
 from heapkit.kinds.hollow.dag import Node, _Entry, children, delete_root
 
@@ -200,14 +200,8 @@ class _HollowCore(HeapBase):
         >>> x = h.push(8, 'h'); h.decrease_key(x, 2); h.peek() is x
         True
         """
-        # Preamble inline, not HeapBase._new_order: a method call on self is a Python call.
-        if type(handle) is not _Entry or handle._tok is not self._tok:
-            self._claim(handle, "decrease_key")
+        k = new_order(self, handle, _Entry, key, "decrease_key")
         e: _Entry = handle
-        if key != key:
-            raise nan_error("decrease_key", key)
-        w = self._wrap
-        k = key if w is None else w(key, e._k)
         if e._k < k:
             raise upward_error(e, key)
         _lower(self, e, key, k)
@@ -221,13 +215,8 @@ class _HollowCore(HeapBase):
         >>> x = h.push(1, 'a'); h.change_key(x, 9); h.pop()
         (4, 'd')
         """
-        if type(handle) is not _Entry or handle._tok is not self._tok:
-            self._claim(handle, "change_key")
+        k = new_order(self, handle, _Entry, key, "change_key")
         e: _Entry = handle
-        if key != key:
-            raise nan_error("change_key", key)
-        w = self._wrap
-        k = key if w is None else w(key, e._k)
         if not e._k < k:
             _lower(self, e, key, k)
             return
