@@ -16,8 +16,8 @@ import pytest
 import heapkit
 from heapkit.__main__ import main
 from heapkit.bench import idiom
-from heapkit.bench.measure import Counted, bytes_per_entry, comparisons, log2_factorial
-from heapkit.bench.workloads import WORKLOADS, scheduler_data
+from heapkit.bench.measure import Counted, bytes_per_entry, comparisons, log2_factorial, time_workload
+from heapkit.bench.workloads import WORKLOADS, Workload, scheduler_data, sort
 from tests.kinds import NAMES
 
 SCALE = 0.005
@@ -184,6 +184,24 @@ def test_idiom_skips_removed_entries() -> None:
     ops = [(0, 0, 5.0), (0, 1, 7.0), (2, 1, 3.0), (1, 0, None), (1, 0, None)]
     # Source: the docs' idiom pops the re-prioritised task once, at its new priority.
     assert idiom.scheduler(ops, 2) == [(3.0, 1), (5.0, 0)]
+
+
+def test_kinds_are_timed_in_rounds_in_alternating_order() -> None:
+    # One run of every kind per round, the kinds' order reversed every other round (as
+    # replay times them): a kind timed first in a fresh process is not favoured.
+    seen: list[str] = []
+
+    def run(factory: Any, pairs: list[tuple[int, int]]) -> list[tuple[Any, int]]:
+        seen.append(factory.__name__)
+        return sort(factory, pairs)
+
+    pairs = [(3, 0), (1, 1), (2, 2)]
+    w = Workload("tiny", "three pushes, three pops", lambda s: pairs, run, idiom.sort, lambda a, b: a == b)
+    kinds = {"binary": heapkit.BinaryHeap, "pairing": heapkit.PairingHeap, "weak": heapkit.WeakHeap}
+    rows = time_workload(w, pairs, kinds, repeat=3)
+    first, second, third = "BinaryHeap", "PairingHeap", "WeakHeap"
+    assert seen == [first, second, third, third, second, first, first, second, third]
+    assert all(r.ok and len(r.ratios) == 3 for r in rows.values())
 
 
 def test_cli_quick_one_workload(tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
