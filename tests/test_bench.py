@@ -188,7 +188,7 @@ def test_idiom_skips_removed_entries() -> None:
 
 def test_kinds_are_timed_in_rounds_in_alternating_order() -> None:
     # One run of every kind per round, the kinds' order reversed every other round (as
-    # replay times them): a kind timed first in a fresh process is not favoured.
+    # replay times them), so no kind is always the one timed first.
     seen: list[str] = []
 
     def run(factory: Any, pairs: list[tuple[int, int]]) -> list[tuple[Any, int]]:
