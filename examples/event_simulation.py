@@ -50,8 +50,10 @@ def mm1_wait(lam: float, mu: float) -> float:
 
 def main() -> None:
     lam, mu = 0.8, 1.0
-    print(f"Copperfield checkout: simulated wait {simulate(lam, mu, 50_000):.2f} min, "
-          f"M/M/1 formula {mm1_wait(lam, mu):.2f} min")
+    print(
+        f"Copperfield checkout: simulated wait {simulate(lam, mu, 50_000):.2f} min, "
+        f"M/M/1 formula {mm1_wait(lam, mu):.2f} min"
+    )
 
 
 if __name__ == "__main__":

@@ -34,8 +34,10 @@ def station_logs(stations: int, readings: int, seed: int = 8) -> list[list[float
 def main() -> None:
     logs = station_logs(12, 500)
     timeline = list(merge(logs))
-    print(f"Saltmarsh: {len(timeline)} readings from {len(logs)} stations, "
-          f"first at {timeline[0]} s, last at {timeline[-1]} s")
+    print(
+        f"Saltmarsh: {len(timeline)} readings from {len(logs)} stations, "
+        f"first at {timeline[0]} s, last at {timeline[-1]} s"
+    )
 
 
 if __name__ == "__main__":

@@ -52,9 +52,7 @@ def shortest_times(g: Graph, source: Node, kind: str = heapkit.DEFAULT) -> dict[
     return dist
 
 
-def fastest_route(
-    g: Graph, source: Node, target: Node, kind: str = heapkit.DEFAULT
-) -> tuple[float, list[Node]]:
+def fastest_route(g: Graph, source: Node, target: Node, kind: str = heapkit.DEFAULT) -> tuple[float, list[Node]]:
     """A*: (minutes, junctions) of a fastest route; the heuristic never overestimates."""
     fastest = min(w for edges in g.values() for _, w in edges)
 

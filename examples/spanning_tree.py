@@ -18,9 +18,7 @@ def campus(n: int, seed: int = 5) -> list[tuple[float, float]]:
     return [(rng.uniform(0, 1000), rng.uniform(0, 1000)) for _ in range(n)]
 
 
-def prim(
-    points: list[tuple[float, float]], kind: str = heapkit.DEFAULT
-) -> tuple[float, list[tuple[int, int]]]:
+def prim(points: list[tuple[float, float]], kind: str = heapkit.DEFAULT) -> tuple[float, list[tuple[int, int]]]:
     """Total cable length and the tree's edges (complete graph, O(n^2) edge scans)."""
     n = len(points)
     q: Any = heapkit.new(kind)

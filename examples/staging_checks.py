@@ -156,12 +156,16 @@ def main(argv: list[str]) -> None:
     events = shift()
     if "--env" in argv:
         served, reports = env_staging_shift(events)
-        print(json.dumps({
-            "served": served,
-            "ledgers": len(reports),
-            "over_bound": sum(led.violation_count for led in reports),
-            "HEAPKIT_DEBUG": os.environ.get("HEAPKIT_DEBUG", ""),
-        }))
+        print(
+            json.dumps(
+                {
+                    "served": served,
+                    "ledgers": len(reports),
+                    "over_bound": sum(led.violation_count for led in reports),
+                    "HEAPKIT_DEBUG": os.environ.get("HEAPKIT_DEBUG", ""),
+                }
+            )
+        )
         return
     path = os.path.join(tempfile.mkdtemp(), "quillmoor.jsonl")
     served, ledger = staging_shift(events, trace_path=path)
@@ -170,8 +174,7 @@ def main(argv: list[str]) -> None:
     print("\nthe three costliest single operations:")
     for r in ledger.worst(3):
         print(f"  #{r.step} {r.op} at n={r.n}: {r.actual} {ledger.unit}")
-    print(f"\ntrace kept at {path}; compare the kinds on it with\n"
-          f"  python -m heapkit replay {path} --check --audit")
+    print(f"\ntrace kept at {path}; compare the kinds on it with\n  python -m heapkit replay {path} --check --audit")
 
 
 if __name__ == "__main__":

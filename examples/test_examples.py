@@ -167,10 +167,19 @@ def test_evening_drain_is_sorted() -> None:
 
 def test_heapkit_debug_checks_and_audits_every_queue_of_the_process() -> None:
     here = Path(__file__).resolve().parent
-    env = {**os.environ, "HEAPKIT_DEBUG": "check:50,audit",
-           "PYTHONPATH": os.pathsep.join([str(here.parent), os.environ.get("PYTHONPATH", "")])}
-    done = subprocess.run([sys.executable, str(here / "staging_checks.py"), "--env"],
-                          capture_output=True, text=True, env=env, cwd=here, check=True)
+    env = {
+        **os.environ,
+        "HEAPKIT_DEBUG": "check:50,audit",
+        "PYTHONPATH": os.pathsep.join([str(here.parent), os.environ.get("PYTHONPATH", "")]),
+    }
+    done = subprocess.run(
+        [sys.executable, str(here / "staging_checks.py"), "--env"],
+        capture_output=True,
+        text=True,
+        env=env,
+        cwd=here,
+        check=True,
+    )
     out = json.loads(done.stdout)
     assert out["ledgers"] == 2 and out["over_bound"] == 0  # one audit per desk, reported at exit of scope
     assert [tuple(k) for k in out["served"]] == _desk_by_scan(shift())  # source: exhaustive scan with min()

@@ -6,8 +6,9 @@ from heapkit.testing import adapt, assert_conforms
 
 
 def make_queue():  # type: ignore[no-untyped-def]
-    return adapt(TicketQueue(), push="add", pop="take", peek="next_up",
-                 decrease_key="bump", change_key="bump", remove="cancel")
+    return adapt(
+        TicketQueue(), push="add", pop="take", peek="next_up", decrease_key="bump", change_key="bump", remove="cancel"
+    )
 
 
 def test_ticket_queue_behaves_like_a_priority_queue() -> None:

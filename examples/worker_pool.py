@@ -48,13 +48,18 @@ def studio_day(n: int, seed: int = 11) -> list[Job]:
     jobs = []
     for i in range(n):
         r = rng.random()
-        jobs.append(Job(f"shot-{i:03d}", rng.randrange(1, 50),
-                        bump=rng.randrange(0, 50) if r < 0.25 else None, withdraw=0.25 <= r < 0.375))
+        jobs.append(
+            Job(
+                f"shot-{i:03d}",
+                rng.randrange(1, 50),
+                bump=rng.randrange(0, 50) if r < 0.25 else None,
+                withdraw=0.25 <= r < 0.375,
+            )
+        )
     return jobs
 
 
-def run_shift(jobs: list[Job], workers: int = 3, *, hold: bool = False,
-              kind: str = heapkit.DEFAULT) -> Shift:
+def run_shift(jobs: list[Job], workers: int = 3, *, hold: bool = False, kind: str = heapkit.DEFAULT) -> Shift:
     """Render ``jobs`` on ``workers`` threads.  ``hold=True`` keeps the workers at the door
     until every bump and withdrawal is done (a reproducible order)."""
     q: Any = heapkit.blocking(heapkit.new(kind, stable=True))  # equal priorities: first submitted first

@@ -16,11 +16,17 @@ settings.register_profile(
     print_blob=True,
 )
 settings.register_profile(
-    "dev", max_examples=40, stateful_step_count=40, deadline=None,
+    "dev",
+    max_examples=40,
+    stateful_step_count=40,
+    deadline=None,
     suppress_health_check=[HealthCheck.too_slow],
 )
 settings.register_profile(
-    "thorough", max_examples=2000, stateful_step_count=100, deadline=None,
+    "thorough",
+    max_examples=2000,
+    stateful_step_count=100,
+    deadline=None,
     suppress_health_check=[HealthCheck.too_slow],
 )
 settings.load_profile(os.environ.get("HYPOTHESIS_PROFILE", "dev"))

@@ -29,9 +29,7 @@ def matching(problems: Sequence[str], rule: str, handle: Any, path: Sequence[str
     return [p for p in problems if p.startswith(head) and (entry + ":") in p]
 
 
-def assert_breaks(
-    heap: Any, rule: str, handle: Any = None, path: Sequence[str] | None = None
-) -> InvariantError:
+def assert_breaks(heap: Any, rule: str, handle: Any = None, path: Sequence[str] | None = None) -> InvariantError:
     """``check(heap)`` raises, naming ``rule`` at ``handle`` (None: the heap) and ``path``."""
     known = getattr(type(heap), "RULES", {})
     assert rule in known or rule in heapkit.contracts.PROTOCOL_RULES, f"{rule!r} is no rule"

@@ -54,7 +54,10 @@ def test_summary_matches_hand_computed_pairing_example() -> None:
         h.pop()  # n=3: children [2, 3], one link; cost = r = 2; sizes 2, 1: Phi = 1
     rec = list(led.records)
     assert [(r.op, r.n, r.actual, r.comparisons) for r in rec] == [
-        ("push", 0, 1, 0), ("push", 1, 2, 1), ("push", 2, 2, 1), ("pop", 3, 2, 1),
+        ("push", 0, 1, 0),
+        ("push", 1, 2, 1),
+        ("push", 2, 2, 1),
+        ("pop", 3, 2, 1),
     ]
     phis = [0.0, 1.0, lg(3) + 1, 1.0]  # by hand, from the sizes in the comments
     assert [r.phi_after for r in rec] == pytest.approx(phis)
@@ -89,9 +92,7 @@ def test_binary_heap_costs_are_levels_moved() -> None:
 
 
 # --- no violation on long random workloads ------------------------------------------
-OPS = st.lists(
-    st.tuples(st.integers(0, 9), st.integers(-50, 50), st.integers(0, 10**6)), min_size=1, max_size=600
-)
+OPS = st.lists(st.tuples(st.integers(0, 9), st.integers(-50, 50), st.integers(0, 10**6)), min_size=1, max_size=600)
 
 
 def drive(h: Any, ops: list[tuple[int, int, int]], mono: bool, spare: Callable[[], Any]) -> list[Any]:
@@ -472,9 +473,7 @@ def test_assert_bounds_names_the_operation() -> None:
     assert "OVER BOUND" in led.summary()
 
 
-def test_plot_names_the_extra_when_matplotlib_is_missing(
-    monkeypatch: pytest.MonkeyPatch, tmp_path: Any
-) -> None:
+def test_plot_names_the_extra_when_matplotlib_is_missing(monkeypatch: pytest.MonkeyPatch, tmp_path: Any) -> None:
     h = PairingHeap()
     with audit(h) as led:
         h.push(1, None)

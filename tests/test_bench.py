@@ -89,8 +89,7 @@ def test_costly_keys_order_as_their_tuples() -> None:
     pairs = _data("sort-costly")
     keys = [k for k, _ in pairs]
     # Source: Python's own ordering of lists of strings (sorted() with str.casefold).
-    assert [k.label for k in sorted(keys)] == sorted((k.label for k in keys),
-                                                     key=lambda s: s.casefold().split("/"))
+    assert [k.label for k in sorted(keys)] == sorted((k.label for k in keys), key=lambda s: s.casefold().split("/"))
     assert len({tuple(k.fields()) for k in keys}) == len(keys)  # distinct: one pop order
 
 
@@ -148,9 +147,7 @@ OVER_TARGET: dict[float, dict[str, str]] = {
 
 @pytest.mark.parametrize("margin", list(OVER_TARGET))
 @pytest.mark.parametrize("kind", NAMES)
-def test_comparisons_within_target_of_log2_factorial(
-    kind: str, margin: float, request: pytest.FixtureRequest
-) -> None:
+def test_comparisons_within_target_of_log2_factorial(kind: str, margin: float, request: pytest.FixtureRequest) -> None:
     counts = _counts()
     if kind not in counts:
         pytest.skip(f"{kind} cannot take these keys")
@@ -232,8 +229,9 @@ def test_cli_unknown_option_exits_2() -> None:
 
 def test_cli_sections_render(capsys: pytest.CaptureFixture[str]) -> None:
     kind = next(k for k in NAMES if not getattr(heapkit.KINDS[k], "MONOTONE", False))
-    code = main(["bench", "--quick", "--repeat", "1", "--kinds", kind,
-                 "--workload", "comparisons,memory,growth,contracts"])
+    code = main(
+        ["bench", "--quick", "--repeat", "1", "--kinds", kind, "--workload", "comparisons,memory,growth,contracts"]
+    )
     assert code == 0
     text = capsys.readouterr().out
     for head in ("key comparisons", "bytes per entry", "ns per operation", "contract modes"):

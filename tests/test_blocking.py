@@ -118,6 +118,7 @@ def test_a_push_through_locked_wakes_a_blocking_pop() -> None:
 
 # --- delayed release --------------------------------------------------------------------
 
+
 def test_due_pop_waits_for_the_minimums_time_and_wakes_early() -> None:
     clock = ManualClock(100.0)
     q = heapkit.blocking(heapkit.PairingHeap(), due=True, clock=clock)
@@ -226,6 +227,7 @@ TestDueModel = DueModel.TestCase
 
 
 # --- capacity and close ---------------------------------------------------------------
+
 
 def test_push_waits_for_room_and_times_out_on_the_clock() -> None:
     clock = ManualClock()

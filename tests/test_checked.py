@@ -35,11 +35,11 @@ class Careless(PairingHeap[Any, Any]):
 def _break_careless(**options: Any) -> tuple[Any, HistoryError]:
     h = checked(Careless(), **options)
     handles = [h.push(k, f"v{k}") for k in (40, 10, 30, 20, 50, 60)]
-    h.pop()                                      # pairs the children: now there is depth
+    h.pop()  # pairs the children: now there is depth
     h.change_key(handles[0], 45)
     with pytest.raises(HistoryError) as info:
         for x in handles[2:]:
-            h.decrease_key(x, 1)                 # below the root's 20: caught at once
+            h.decrease_key(x, 1)  # below the root's 20: caught at once
     return h, info.value
 
 
@@ -74,7 +74,7 @@ def test_replay_on_a_sound_kind_runs_clean() -> None:
         good = err.replay(kind=kind)
         assert len(good) == len(h)
         out = [good.pop()[0] for _ in range(len(good))]
-        assert out == sorted(out)                # sorted(): the order a heap must give
+        assert out == sorted(out)  # sorted(): the order a heap must give
 
 
 def test_unchecked_restores_the_original_class() -> None:
@@ -83,7 +83,7 @@ def test_unchecked_restores_the_original_class() -> None:
         assert checked(h) is h and isinstance(h, cls) and type(h) is not cls
         h.push(1, "a")
         assert unchecked(h) is h and type(h) is cls and h._ext is None
-        assert unchecked(h) is h                 # not checked: nothing to do
+        assert unchecked(h) is h  # not checked: nothing to do
 
 
 def test_modes_stack_and_come_off_in_reverse() -> None:
@@ -120,6 +120,7 @@ def test_checking_a_broken_heap_fails_at_once() -> None:
 
 # --- keys mutated in place by the user ------------------------------------------
 
+
 def test_mutated_key_is_caught_at_the_next_operation_with_full_checks() -> None:
     h = checked(PairingHeap(), full_every=1)
     h.push([1], "a")
@@ -136,13 +137,14 @@ def test_mutated_key_is_caught_by_the_local_check_of_an_op_that_touches_it() -> 
     h.push([1], "a")
     three = h.push([3], "c")
     k = [5]
-    h.push(k, "five")                           # positions: [1] root, [3] child 0, [5] child 1
+    h.push(k, "five")  # positions: [1] root, [3] child 0, [5] child 1
     k[0] = 0
     with pytest.raises(HistoryError, match=r"broken at root → child 1 entry \(\[0\], 'five'\)"):
-        h.decrease_key(three, [2])               # re-checks the root and its children
+        h.decrease_key(three, [2])  # re-checks the root and its children
 
 
 # --- the re-entrancy guard ------------------------------------------------------
+
 
 class Meddler:
     """A key whose `<` runs ``action`` once (pushing to or popping from its heap)."""
@@ -190,9 +192,9 @@ def test_a_key_popping_mid_pop_gets_runtime_error(name: str) -> None:
 
 def test_the_kinds_own_inner_calls_pass_the_guard() -> None:
     h = checked(PairingHeap([(2, "b"), (1, "a")]))
-    assert h.remove(h.peek()) == (1, "a")        # pairing's remove of the root calls pop
+    assert h.remove(h.peek()) == (1, "a")  # pairing's remove of the root calls pop
     assert _ext(h).history[-1][0] == "remove"
-    h.extend([(0, "z"), (5, "e")])               # extend melds a heap it builds
+    h.extend([(0, "z"), (5, "e")])  # extend melds a heap it builds
     assert _ext(h).history[-1][0] == "extend"
     assert [k for k, _ in _ext(h).history[-1][1]] == [0, 5]
 
@@ -225,12 +227,13 @@ def test_the_guard_still_stops_a_meddling_key_under_the_audit(name: str) -> None
 def test_a_raising_key_leaves_a_checked_heap_whole() -> None:
     h = checked(PairingHeap([(1, "a"), (2, "b")]))
     with pytest.raises(TypeError):
-        h.push("x", "str")                      # str < int raises TypeError
+        h.push("x", "str")  # str < int raises TypeError
     assert len(h) == 2
     heapkit.check(h)
 
 
 # --- melds across modes -----------------------------------------------------------
+
 
 @pytest.mark.parametrize("cls", [PairingHeap, BinaryHeap])
 def test_checked_and_plain_heaps_meld_both_ways(cls: type) -> None:
@@ -241,8 +244,8 @@ def test_checked_and_plain_heaps_meld_both_ways(cls: type) -> None:
     assert three in a and len(b) == 0
     assert _ext(a).history[-1][0] == "meld"
     c = cls([(0, "z")])
-    c.meld(a)                                    # a plain heap absorbs the checked one
-    a.push(7, "g")                               # a notices it changed outside checked mode
+    c.meld(a)  # a plain heap absorbs the checked one
+    a.push(7, "g")  # a notices it changed outside checked mode
     assert ("outside",) in _ext(a).history
     assert [c.pop()[0] for _ in range(len(c))] == [0, 1, 3, 5]
     d = checked(cls([(4, "d")]))
@@ -252,6 +255,7 @@ def test_checked_and_plain_heaps_meld_both_ways(cls: type) -> None:
 
 
 # --- HEAPKIT_DEBUG ------------------------------------------------------------------
+
 
 def test_heapkit_debug_makes_new_heaps_checked() -> None:
     code = (
@@ -291,6 +295,7 @@ def test_without_heapkit_debug_heaps_are_plain() -> None:
 
 
 # --- the local checks alone catch a kind's own mistakes ------------------------------
+
 
 class Lazybones(BinaryHeap[Any, Any]):
     """A broken binary heap: push appends and never climbs."""
@@ -350,7 +355,7 @@ def test_kinds_without_local_hooks_get_a_full_check_after_each_due_operation() -
     NoHooks.surveys = 0
     for k in range(6):
         h.push(k, k)
-    assert NoHooks.surveys == 3                  # operations 2, 4 and 6
+    assert NoHooks.surveys == 3  # operations 2, 4 and 6
 
 
 def test_a_mutated_key_that_the_next_pop_tidies_away_is_still_caught() -> None:
@@ -359,9 +364,9 @@ def test_a_mutated_key_that_the_next_pop_tidies_away_is_still_caught() -> None:
         h.push(k, str(k))
     k = [5]
     h.push(k, "five")
-    k[0] = 0                                     # now the smallest, but not at the root
+    k[0] = 0  # now the smallest, but not at the root
     with pytest.raises(HistoryError, match=r"'minimum' broken at the heap entry \(\[0\], 'five'\)"):
-        h.pop()                                  # returns [1]; the pairing puts [0] on top
+        h.pop()  # returns [1]; the pairing puts [0] on top
 
 
 def test_heaps_heapkit_builds_for_its_own_use_are_left_plain() -> None:

@@ -106,7 +106,10 @@ def test_radix_on_a_monotone_trace_gets_every_column(tmp_path: Path) -> None:
 
 def test_a_kind_that_breaks_heap_order_fails_the_check() -> None:
     rows = compare(
-        TRACE, ["sloppy", "pairing"], repeat=1, progress=False,
+        TRACE,
+        ["sloppy", "pairing"],
+        repeat=1,
+        progress=False,
         factories={"sloppy": SloppyPairing, "pairing": heapkit.PairingHeap},
     )
     by = {r.kind: r for r in rows}
@@ -155,9 +158,7 @@ def _kinds_of(argv: list[str], capsys: pytest.CaptureFixture[str]) -> list[str]:
     return sorted(r["kind"] for r in data["rows"])
 
 
-def test_kinds_take_commas_or_spaces_in_every_command(
-    tmp_path: Path, capsys: pytest.CaptureFixture[str]
-) -> None:
+def test_kinds_take_commas_or_spaces_in_every_command(tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
     base = ["replay", str(TRACE), "--repeat", "1", "--json"]
     assert _kinds_of([*base, "--kinds", "binary,pairing"], capsys) == ["binary", "pairing"]
     assert _kinds_of([*base, "--kinds", "binary", "pairing"], capsys) == ["binary", "pairing"]
@@ -223,7 +224,8 @@ def test_worst_op_names_each_kinds_cost_unit() -> None:
 
 def test_a_check_failure_names_the_trace_line(tmp_path: Path) -> None:
     wrong = tmp_path / "wrong.jsonl"
-    wrong.write_text('{"op":"push","q":0,"id":0,"key":1}\n{"op":"push","q":0,"id":1,"key":2}\n\n'
-                     '{"op":"pop","q":0,"key":2}\n')
+    wrong.write_text(
+        '{"op":"push","q":0,"id":0,"key":1}\n{"op":"push","q":0,"id":1,"key":2}\n\n{"op":"pop","q":0,"key":2}\n'
+    )
     (row,) = compare(wrong, ["binary"], repeat=1, progress=False)
     assert row.checked == "FAILED: InvariantError: trace line 4: pop returned key 1; the trace recorded 2"

@@ -72,7 +72,10 @@ def test_replay_of_an_endless_line_stops_at_the_limit(capsys: pytest.CaptureFixt
 def test_replay_reads_a_pipe_once() -> None:
     done = subprocess.run(
         [sys.executable, "-m", "heapkit", "replay", "/dev/stdin", "--kinds", "binary", "--repeat", "1", "--json"],
-        input=TRACE.read_bytes(), capture_output=True, cwd=ROOT, timeout=300,
+        input=TRACE.read_bytes(),
+        capture_output=True,
+        cwd=ROOT,
+        timeout=300,
     )
     assert done.returncode == 0, done.stderr
     (row,) = json.loads(done.stdout)["rows"]
@@ -95,16 +98,24 @@ def test_an_empty_trace_is_refused_and_nothing_is_recommended(
 @pytest.mark.parametrize("target", ["dir", "missing/x.out", "fifo"])
 @pytest.mark.parametrize(("command", "flag"), [("replay", "--dot"), ("demo", "--keep"), ("bench", "--json")])
 def test_an_output_that_cannot_be_written_is_reported_before_the_run(
-    tmp_path: Path, monkeypatch: pytest.MonkeyPatch, capsys: pytest.CaptureFixture[str],
-    command: str, flag: str, target: str,
+    tmp_path: Path,
+    monkeypatch: pytest.MonkeyPatch,
+    capsys: pytest.CaptureFixture[str],
+    command: str,
+    flag: str,
+    target: str,
 ) -> None:
     _not_run(monkeypatch)
     # A pipe stands for every special file (never a real device: a regression would delete it).
     os.mkfifo(tmp_path / "fifo")
-    out = {"dir": str(tmp_path), "missing/x.out": str(tmp_path / "missing" / "x.out"),
-           "fifo": str(tmp_path / "fifo")}[target]
-    argv = {"replay": ["replay", str(TRACE)], "demo": ["demo", "--jobs", "10"],
-            "bench": ["bench", "--quick", "--workload", "sort-random"]}[command]
+    out = {"dir": str(tmp_path), "missing/x.out": str(tmp_path / "missing" / "x.out"), "fifo": str(tmp_path / "fifo")}[
+        target
+    ]
+    argv = {
+        "replay": ["replay", str(TRACE)],
+        "demo": ["demo", "--jobs", "10"],
+        "bench": ["bench", "--quick", "--workload", "sort-random"],
+    }[command]
     assert main([*argv, flag, out]) == 2
     line = _one_line(capsys.readouterr().err, command)
     assert flag in line and repr(out) in line
@@ -138,11 +149,19 @@ def test_demo_jobs_must_be_positive(capsys: pytest.CaptureFixture[str], jobs: st
     assert f"--jobs must be between 1 and 200000, got {jobs}" in _one_line(capsys.readouterr().err, "demo")
 
 
-@pytest.mark.parametrize("argv", [["demo", "--kinds", "pa\udcffring"], ["bench", "--kinds", "\udcff"],
-                                  ["replay", "tr\udcffce.jsonl"], ["demo", "--keep", "/no-such-dir/\udcff"]])
+@pytest.mark.parametrize(
+    "argv",
+    [
+        ["demo", "--kinds", "pa\udcffring"],
+        ["bench", "--kinds", "\udcff"],
+        ["replay", "tr\udcffce.jsonl"],
+        ["demo", "--keep", "/no-such-dir/\udcff"],
+    ],
+)
 def test_bytes_that_are_not_utf8_in_arguments(argv: list[str]) -> None:
     args = [a.encode("utf-8", "surrogateescape") for a in argv]
-    done = subprocess.run([sys.executable.encode(), b"-m", b"heapkit", *args], capture_output=True, cwd=ROOT,
-                          timeout=120)
+    done = subprocess.run(
+        [sys.executable.encode(), b"-m", b"heapkit", *args], capture_output=True, cwd=ROOT, timeout=120
+    )
     assert done.returncode == 2
     _one_line(done.stderr.decode("utf-8", "replace"), argv[0])

@@ -122,8 +122,9 @@ def test_every_rule_has_a_corruption_test(cls: type) -> None:
     assert {rule for c, rule in CORRUPTIONS if c is cls} == set(cls.RULES)  # type: ignore[attr-defined]
 
 
-@pytest.mark.parametrize("case", sorted(CORRUPTIONS, key=lambda c: (c[0].__name__, c[1])),
-                         ids=lambda c: f"{c[0].__name__}-{c[1]}")
+@pytest.mark.parametrize(
+    "case", sorted(CORRUPTIONS, key=lambda c: (c[0].__name__, c[1])), ids=lambda c: f"{c[0].__name__}-{c[1]}"
+)
 def test_each_rule_can_fail(case: tuple[type, str]) -> None:
     heap, rule, handle, path = CORRUPTIONS[case]()
     assert rule == case[1]
@@ -140,7 +141,7 @@ def test_message_names_rule_entry_and_path() -> None:
 def test_several_broken_rules_are_all_reported_up_to_the_limit() -> None:
     h = _binary()
     for x in h._a[1:]:
-        x._key = x._k = -1 - x._key      # every non-root entry now below its parent
+        x._key = x._k = -1 - x._key  # every non-root entry now below its parent
     with pytest.raises(InvariantError) as info:
         heapkit.check(h)
     assert len(info.value.problems) == heapkit.contracts.LIMIT
@@ -161,7 +162,7 @@ def test_a_key_mutated_in_place_is_caught_with_its_entry() -> None:
     h.push([1], "a")
     k = [5]
     x = h.push(k, "five")
-    k[0] = 0                                   # the user changes the key behind the heap's back
+    k[0] = 0  # the user changes the key behind the heap's back
     assert_breaks(h, "heap-order", x, ["root", "child 0"])
     with pytest.raises(InvariantError, match=r"entry \(\[0\], 'five'\)"):
         heapkit.check(h)
@@ -169,13 +170,14 @@ def test_a_key_mutated_in_place_is_caught_with_its_entry() -> None:
 
 def test_deep_chain_is_checked_without_recursion() -> None:
     h = PairingHeap()
-    for k in range(50_000, 0, -1):            # each push becomes the root over the last: a chain
+    for k in range(50_000, 0, -1):  # each push becomes the root over the last: a chain
         h.push(k, None)
     shape = heapkit.check(h)
     assert (shape.size, shape.height) == (50_000, 49_999)
 
 
 # --- a user's own queue: what the protocol alone can show -------------------
+
 
 class _Ticket:
     def __init__(self, key: Any, value: Any) -> None:

@@ -23,7 +23,7 @@ def _parse(text: str) -> tuple[dict[str, str], list[tuple[str, str]]]:
 @pytest.mark.parametrize("arity", [2, 3, 4])
 def test_array_heap_edges_follow_the_parent_formula(arity: int) -> None:
     h = DaryHeap(arity=arity)
-    for k in range(20):                         # pushed in order: key k stands at position k
+    for k in range(20):  # pushed in order: key k stands at position k
         h.push(k, None)
     labels, edges = _parse(to_dot(h))
     key = {name: int(label.split("\\n")[0]) for name, label in labels.items()}
@@ -34,9 +34,9 @@ def test_array_heap_edges_follow_the_parent_formula(arity: int) -> None:
 def test_pairing_heap_shows_degrees_and_every_edge() -> None:
     h = PairingHeap([(k, None) for k in (5, 3, 8, 1)])
     h.push(9, None)
-    h.pop()                                     # pairing makes some depth
+    h.pop()  # pairing makes some depth
     labels, edges = _parse(to_dot(h))
-    assert len(labels) == len(h) == 4 and len(edges) == 3      # a tree on 4 nodes has 3 edges
+    assert len(labels) == len(h) == 4 and len(edges) == 3  # a tree on 4 nodes has 3 edges
     degree = {n: int(label.split("degree ")[1]) for n, label in labels.items()}
     out = {n: sum(1 for p, _ in edges if p == n) for n in labels}
     assert degree == out
@@ -52,7 +52,7 @@ def test_drawing_is_capped_with_a_note() -> None:
 
 def test_a_deep_chain_is_drawn_without_recursion() -> None:
     h = PairingHeap()
-    for k in range(100_000, 0, -1):             # each push becomes the root: a chain
+    for k in range(100_000, 0, -1):  # each push becomes the root: a chain
         h.push(k, None)
     labels, edges = _parse(to_dot(h, limit=5))
     assert len(labels) == 5 and len(edges) == 4
@@ -74,7 +74,7 @@ def test_limit_is_validated() -> None:
 # --- every kind with the hook ------------------------------------------------------
 
 DRAWN = [name for name in sorted(heapkit.KINDS) if hasattr(heapkit.KINDS[name], "_dot_edges")]
-ARRAYS = {"binary", "dary", "lazy"}             # implicit trees: the drawing is the list, slot by slot
+ARRAYS = {"binary", "dary", "lazy"}  # implicit trees: the drawing is the list, slot by slot
 
 
 def _worked(name: str, seed: int = 7, stable: bool = False) -> tuple[Any, list[int]]:
@@ -87,11 +87,11 @@ def _worked(name: str, seed: int = 7, stable: bool = False) -> tuple[Any, list[i
     for k in rng.sample(range(1000), 80):
         live.append(h.push(k, None))
         model.append(k)
-    for _ in range(3):                          # pops build trees in the lazy-linking kinds
+    for _ in range(3):  # pops build trees in the lazy-linking kinds
         k, _v = h.pop()
         model.remove(k)
     live = [x for x in live if x.alive]
-    for x in rng.sample(live, 25):              # cuts, marks, stale entries
+    for x in rng.sample(live, 25):  # cuts, marks, stale entries
         model.remove(x.key)
         h.decrease_key(x, x.key - rng.randrange(1, 400))
         model.append(x.key)
@@ -113,15 +113,15 @@ def test_every_entry_is_drawn_once_with_its_parent_first(name: str, stable: bool
     text = to_dot(h, limit=10_000)
     labels, edges = _parse(text)
     assert text.startswith("digraph heap {") and text.endswith("}") and "truncated" not in text
-    assert len(re.findall(r"^  n\d+ \[label=", text, re.M)) == len(labels)   # one node line per node
+    assert len(re.findall(r"^  n\d+ \[label=", text, re.M)) == len(labels)  # one node line per node
     live = {n: lab for n, lab in labels.items() if not lab.endswith(", stale")}
     # The keys drawn as entries are the keys kept in the plain list beside the heap.
     assert sorted(_key(lab) for lab in live.values()) == sorted(model)
     index = {n: int(n[1:]) for n in labels}
     children = [c for _, c in edges]
-    assert len(children) == len(set(children))                   # one parent each: a forest
-    assert all(index[p] < index[c] for p, c in edges)            # parents drawn before children
-    tops = len(labels) - len(edges)                              # a forest on N nodes has N - roots edges
+    assert len(children) == len(set(children))  # one parent each: a forest
+    assert all(index[p] < index[c] for p, c in edges)  # parents drawn before children
+    tops = len(labels) - len(edges)  # a forest on N nodes has N - roots edges
     shape = heapkit.check(h)
     assert tops == shape.roots
     if name not in ARRAYS:
@@ -142,29 +142,29 @@ def test_labels_agree_with_check(name: str) -> None:
     extras = {n: lab.split("\\n", 1)[1] for n, lab in labels.items()}
     if name in ("fibonacci", "binomial", "pairing"):
         degree = {n: int(re.match(r"degree (\d+)", e).group(1)) for n, e in extras.items()}  # type: ignore[union-attr]
-        assert degree == out                                     # the degree is the number of children
+        assert degree == out  # the degree is the number of children
         assert max(degree.values()) == shape.max_degree
         assert sum(e.endswith(", marked") for e in extras.values()) == (shape.marked or 0)
     elif name == "rank-pairing":
         rank = {n: int(re.match(r"rank (\d+)", e).group(1)) for n, e in extras.items()}  # type: ignore[union-attr]
-        assert max(rank.values()) == shape.max_degree            # check reports the largest rank
+        assert max(rank.values()) == shape.max_degree  # check reports the largest rank
         assert sum(e.endswith(", root") for e in extras.values()) == shape.roots
         # Type-2 ranks never grow downwards (Haeupler-Sen-Tarjan 2011, recalled from memory).
         assert all(not rank[p] < rank[c] for p, c in edges)
-        assert max(out.values()) <= 2                            # the binary view
+        assert max(out.values()) <= 2  # the binary view
         # Half-trees: a root has no right child.
         assert not any(extras[p].endswith(", root") and extras[c].endswith(", right") for p, c in edges)
-    elif name in ARRAYS:                                          # array heaps: "[i]" is the slot
+    elif name in ARRAYS:  # array heaps: "[i]" is the slot
         assert [int(re.match(r"\[(\d+)\]", e).group(1)) for e in extras.values()] == list(range(len(labels)))  # type: ignore[union-attr]
         assert max(out.values()) <= (h._d if name == "dary" else 2)
         if name == "lazy":
             stale = sum(e.endswith(", stale") for e in extras.values())
             assert stale == shape.details["stale"] and stale > 0
             assert len(labels) == shape.details["entries"]
-    elif name == "weak":                                        # "[i]": the array position
+    elif name == "weak":  # "[i]": the array position
         slots = [int(re.match(r"\[(\d+)\]", e).group(1)) for e in extras.values()]  # type: ignore[union-attr]
         assert slots == list(range(len(labels)))
-        assert max(out.values()) == shape.max_degree               # children of a d-ancestor
+        assert max(out.values()) == shape.max_degree  # children of a d-ancestor
         # Each edge runs from a position's distinguished ancestor, which is above it
         # (smaller index) in the array (Dutton 1993, recalled from memory).
         assert all(slots[index[p]] < slots[index[c]] for p, c in edges)
@@ -189,7 +189,7 @@ def _deep(name: str, depth: int) -> Any:
     invariants keep it shallow."""
     if name == "pairing":
         h: Any = PairingHeap()
-        for k in range(depth, -1, -1):          # each push becomes the root: a chain
+        for k in range(depth, -1, -1):  # each push becomes the root: a chain
             h.push(k, None)
         return h
     if name == "fibonacci":
@@ -212,7 +212,7 @@ def _deep(name: str, depth: int) -> Any:
         handles = [h.push(k, None) for k in range(depth + 1)]
         h._import(handles, [2 * 4 + 2] + [1 * 4 + 1] * (depth - 1) + [0])
         return h
-    return None                                 # binomial: height = max degree <= log2 n; arrays: log2 n
+    return None  # binomial: height = max degree <= log2 n; arrays: log2 n
 
 
 @pytest.mark.parametrize("name", DRAWN)
@@ -221,17 +221,17 @@ def test_a_structure_deeper_than_the_recursion_limit(name: str) -> None:
     h = _deep(name, depth)
     if h is None:
         pytest.skip(f"{name} is at most log2(n) deep by its invariants")
-    shape = heapkit.check(h)                    # raises if the shape breaks a rule
+    shape = heapkit.check(h)  # raises if the shape breaks a rule
     assert shape.height >= depth
     labels, edges = _parse(to_dot(h, limit=depth + 10))
     assert len(labels) == len(h) and len(edges) == len(h) - shape.roots
     few, few_edges = _parse(to_dot(h, limit=5))
-    assert len(few) == 5 and len(few_edges) == 4                # a chain: each node under the last
+    assert len(few) == 5 and len(few_edges) == 4  # a chain: each node under the last
 
 
 @pytest.mark.parametrize("name", DRAWN)
 def test_checked_mode_draws_the_same_shape(name: str) -> None:
     h, _model = _worked(name, stable=True)
     body = to_dot(h).splitlines()[2:]
-    heapkit.checked(h)                          # switches the class, keeps the structure
+    heapkit.checked(h)  # switches the class, keeps the structure
     assert to_dot(h).splitlines()[2:] == body

@@ -82,8 +82,8 @@ def _fault_at(name: str, stable: bool, op: str, mode: str, seed: int, fuse: int)
     other = kind(stable=stable)
     if isinstance(heap, RadixHeap):
         other._last = heap.last
-    while isinstance(heap, RadixHeap) and op == "pop" and (
-        heap._buckets[0] or len(next(filter(None, heap._buckets))) < 2
+    while (
+        isinstance(heap, RadixHeap) and op == "pop" and (heap._buckets[0] or len(next(filter(None, heap._buckets))) < 2)
     ):
         heap.pop()  # so that the pop under test redistributes a bucket of 2 or more
     others = [other.push(Key(heap.peek().key + i), f"o{i}") for i in range(6)]
@@ -112,8 +112,14 @@ def _fault_at(name: str, stable: bool, op: str, mode: str, seed: int, fuse: int)
 #: Operations that compare no keys: radix remove and meld (buckets by bit length), lazy
 #: remove (the entry goes stale in place), weak push, meld and extend (entries are appended
 #: and settled at the next pop or peek).
-COMPARE_NOTHING = {("radix", "remove"), ("radix", "meld"), ("lazy", "remove"),
-                   ("weak", "push"), ("weak", "meld"), ("weak", "extend")}
+COMPARE_NOTHING = {
+    ("radix", "remove"),
+    ("radix", "meld"),
+    ("lazy", "remove"),
+    ("weak", "push"),
+    ("weak", "meld"),
+    ("weak", "extend"),
+}
 
 
 @pytest.mark.parametrize("mode", MODES)

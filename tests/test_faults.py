@@ -123,9 +123,7 @@ def run_with_faults(name: str, stable: bool, ops: Any, seed: int, mode: str) -> 
 @pytest.mark.parametrize("stable", [False, True])
 @settings(max_examples=40)
 @given(ops=OPS, seed=st.integers(0, 3))
-def test_a_failing_comparison_loses_nothing(
-    name: str, stable: bool, mode: str, ops: Any, seed: int
-) -> None:
+def test_a_failing_comparison_loses_nothing(name: str, stable: bool, mode: str, ops: Any, seed: int) -> None:
     run_with_faults(name, stable, ops, seed, mode)
 
 

@@ -105,7 +105,7 @@ def _corrupt(data: Any, h: Any, x: Any) -> str:
     if pairing and child is not None:
         menu.append("child-links")
     rule = data.draw(st.sampled_from(menu), label="corruption")
-    if rule == "child-links":                   # the first child no longer points back
+    if rule == "child-links":  # the first child no longer points back
         child._prev = child  # type: ignore[union-attr]
         return "links"
     if rule == "ownership":
@@ -139,7 +139,7 @@ def test_local_survey_is_quiet_on_healthy_heaps_and_catches_what_the_op_touched(
     live = _grow(data, h)
     touched, subject = _operate(data, h, live)
     heapkit.check(h)
-    if touched is None:                         # the kind asked for a full check
+    if touched is None:  # the kind asked for a full check
         return
     assert local_rules(h, touched, subject) == []
     covered = _covered(h, touched, subject)
@@ -163,15 +163,14 @@ def test_full_check_catches_a_corruption_anywhere(name: str, data: Any) -> None:
 
 
 @given(name=st.sampled_from(ALL), stable=st.booleans(), data=st.data())
-def test_checked_mode_with_local_checks_runs_healthy_sequences_quietly(
-    name: str, stable: bool, data: Any
-) -> None:
+def test_checked_mode_with_local_checks_runs_healthy_sequences_quietly(name: str, stable: bool, data: Any) -> None:
     h = checked(heapkit.KINDS[name](stable=stable), full_every=10**9)
     handles: list[Any] = []
     for step in range(data.draw(st.integers(0, 40))):
         live = [x for x in handles if x.alive]
-        op = data.draw(st.sampled_from(["push", "extend", "pop", "decrease_key", "change_key", "remove",
-                                        "meld", "clear"]))
+        op = data.draw(
+            st.sampled_from(["push", "extend", "pop", "decrease_key", "change_key", "remove", "meld", "clear"])
+        )
         if op == "push" or (not live and op != "extend"):
             handles.append(h.push(data.draw(SMALL), step))
         elif op == "extend":

@@ -30,9 +30,20 @@ def test_amortized_cost_stays_within_bound(cls: Any, seed: int) -> None:
             pending = [other.push(base + rng.randint(0, 900), -i) for i in range(5)]
         r = rng.random()
         n = len(heap)
-        op = "push" if r < 0.3 or not live else (
-            "decrease_key" if r < 0.6 else "change_key" if r < 0.7 else
-            "remove" if r < 0.8 else "meld" if r < 0.82 else "pop"
+        op = (
+            "push"
+            if r < 0.3 or not live
+            else (
+                "decrease_key"
+                if r < 0.6
+                else "change_key"
+                if r < 0.7
+                else "remove"
+                if r < 0.8
+                else "meld"
+                if r < 0.82
+                else "pop"
+            )
         )
         arg: Any = rng.choice(live) if op in ("decrease_key", "change_key", "remove") else None
         if op == "meld":

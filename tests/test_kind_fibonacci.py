@@ -181,7 +181,7 @@ def test_cascading_cut_changes_phi_by_at_most_four_minus_k() -> None:
     assert shape.height >= 40
     before_phi, before_roots = h._phi(), h._roots
     bottom = chain[-1]
-    h.decrease_key(bottom, -10**9)
+    h.decrease_key(bottom, -(10**9))
     k = h._roots - before_roots  # every cut makes one new root
     assert k == len(chain)  # the cut went through every marked ancestor
     # Phi changes by at most 4 - k for k cuts (CLRS 19.3, recalled from memory).
@@ -381,7 +381,14 @@ def test_rule_counters() -> None:
 
 def test_every_rule_has_a_test() -> None:
     tested = {
-        "heap-order", "links", "roots-unmarked", "min", "degree-size", "size", "ownership", "counters",
+        "heap-order",
+        "links",
+        "roots-unmarked",
+        "min",
+        "degree-size",
+        "size",
+        "ownership",
+        "counters",
     }
     assert tested == set(FibonacciHeap.RULES)
     for rule in tested:

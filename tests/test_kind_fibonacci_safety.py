@@ -74,15 +74,15 @@ def _snapshot(h: Any) -> dict[int, tuple[Any, Any, Any]]:
 
 
 OPS: dict[str, Callable[[Any, Any, dict[str, Any]], Any]] = {
-    "push-min": lambda h, o, n: h.push(Fused(-10**6), "new"),
+    "push-min": lambda h, o, n: h.push(Fused(-(10**6)), "new"),
     "push": lambda h, o, n: h.push(Fused(50), "new"),
     "pop": lambda h, o, n: h.pop(),
-    "decrease_key-cascade": lambda h, o, n: h.decrease_key(n["deep"], Fused(-10**6)),
+    "decrease_key-cascade": lambda h, o, n: h.decrease_key(n["deep"], Fused(-(10**6))),
     "decrease_key-mid": lambda h, o, n: h.decrease_key(n["mid"], Fused(n["mid"].key.v - 1)),
-    "decrease_key-root": lambda h, o, n: h.decrease_key(n["root"], Fused(-10**6)),
+    "decrease_key-root": lambda h, o, n: h.decrease_key(n["root"], Fused(-(10**6))),
     "change_key-min-up": lambda h, o, n: h.change_key(h.peek(), Fused(10**6)),
     "change_key-up": lambda h, o, n: h.change_key(n["mid"], Fused(10**6)),
-    "change_key-down": lambda h, o, n: h.change_key(n["deep"], Fused(-10**6)),
+    "change_key-down": lambda h, o, n: h.change_key(n["deep"], Fused(-(10**6))),
     "remove-min": lambda h, o, n: h.remove(h.peek()),
     "remove": lambda h, o, n: h.remove(n["mid"]),
     "meld": lambda h, o, n: h.meld(o),
@@ -153,7 +153,7 @@ def test_amortized_costs_stay_within_bounds(seed: int) -> None:
             op = "push"
         seen.add(op)
         if op == "push":
-            _audited(h, op, None, lambda: h.push(rng.randrange(-10**6, 10**6), 0))
+            _audited(h, op, None, lambda: h.push(rng.randrange(-(10**6), 10**6), 0))
         elif op == "pop":
             _audited(h, op, None, h.pop)
         elif op == "meld":
@@ -164,7 +164,7 @@ def test_amortized_costs_stay_within_bounds(seed: int) -> None:
             if op == "decrease_key":
                 _audited(h, op, x, lambda x=x: h.decrease_key(x, x.key - rng.randrange(10**5)))
             elif op == "change_key":
-                _audited(h, op, x, lambda x=x: h.change_key(x, rng.randrange(-10**6, 10**6)))
+                _audited(h, op, x, lambda x=x: h.change_key(x, rng.randrange(-(10**6), 10**6)))
             else:
                 _audited(h, op, x, lambda x=x: h.remove(x))
     assert seen == {"push", "pop", "decrease_key", "change_key", "remove", "meld"}
@@ -174,5 +174,5 @@ def test_amortized_costs_stay_within_bounds(seed: int) -> None:
 def test_cascade_cost_is_one_plus_cuts() -> None:
     h, chain = marked_chain(30)
     probe = h._cost_probe("decrease_key", chain[-1])
-    h.decrease_key(chain[-1], -10**9)
+    h.decrease_key(chain[-1], -(10**9))
     assert h._cost("decrease_key", probe, chain[-1]) == 1 + len(chain)  # 1 + cuts

@@ -44,7 +44,7 @@ def test_construction_and_sort_counts_match_the_published_analysis(n: int) -> No
     # every position but the root with its distinguished ancestor, n - 1 comparisons.
     assert Counted.count == n - 1
     out = [h.pop()[0].v for _ in range(n)]
-    assert out == sorted(out)                   # Source: Python's sorted()
+    assert out == sorted(out)  # Source: Python's sorted()
     lg = math.ceil(math.log2(n))
     # Source: weak-heapsort needs at most n*ceil(log2 n) - 2^ceil(log2 n) + n - 1
     # comparisons, construction included (Dutton 1993; Edelkamp, Elmasry, Katajainen
@@ -79,7 +79,7 @@ def test_meld_compares_nothing_and_the_next_pop_settles() -> None:
     # Source: common practice for array heaps (appending moves entries, compares none).
     assert Counted.count == 0
     out = [a.pop()[0].v for _ in range(len(a))]
-    assert out == sorted(out) and len(out) == 500      # Source: Python's sorted()
+    assert out == sorted(out) and len(out) == 500  # Source: Python's sorted()
 
 
 def test_d_ancestor_follows_the_reverse_bits() -> None:
@@ -87,11 +87,12 @@ def test_d_ancestor_follows_the_reverse_bits() -> None:
     # With every bit 0 the left child of i is 2i: position 6 = 2*3 is a left child, 3 a
     # right child of 1, so 6's distinguished ancestor is 1 (Dutton 1993, recalled).
     assert d_ancestor(r, 6) == 1 and d_ancestor(r, 7) == 3 and d_ancestor(r, 1) == 0
-    r[3] = 1                                    # now 6 is the right child of 3
+    r[3] = 1  # now 6 is the right child of 3
     assert d_ancestor(r, 6) == 3 and d_ancestor(r, 7) == 1
 
 
 # --- every rule can fail -------------------------------------------------------------
+
 
 # Keys 0..9 pushed in order, then settled: no join swaps, so the array is [0..9] with every
 # reverse bit 0.  Position i's children are 2i (left) and 2i + 1 (right); 5 is the right
@@ -111,7 +112,7 @@ PATH5 = ["root", "right", "left", "right"]
 def _weak_order() -> tuple[Any, str, Any, list[str]]:
     h = _tens()
     x = h._a[5]
-    x._key = x._k = -1                          # below its distinguished ancestor, position 2
+    x._key = x._k = -1  # below its distinguished ancestor, position 2
     return h, "weak-order", x, PATH5
 
 
@@ -123,7 +124,7 @@ def _root() -> tuple[Any, str, Any, list[str]]:
 
 def _bits() -> tuple[Any, str, Any, list[str]]:
     h = _tens()
-    h._r[7] = 1                                 # 7 has no child in 10 positions
+    h._r[7] = 1  # 7 has no child in 10 positions
     return h, "reverse-bits", h._a[7], ["root", "right", "right", "right"]
 
 
@@ -154,8 +155,13 @@ def _ownership() -> tuple[Any, str, Any, list[str]]:
 
 
 CORRUPTIONS: dict[str, Callable[[], tuple[Any, str, Any, list[str]]]] = {
-    "weak-order": _weak_order, "root": _root, "reverse-bits": _bits, "pending": _pending,
-    "index": _index, "size": _size, "ownership": _ownership,
+    "weak-order": _weak_order,
+    "root": _root,
+    "reverse-bits": _bits,
+    "pending": _pending,
+    "index": _index,
+    "size": _size,
+    "ownership": _ownership,
 }
 
 
@@ -166,20 +172,21 @@ def test_every_rule_has_a_corruption_test() -> None:
 @pytest.mark.parametrize("rule", sorted(CORRUPTIONS))
 def test_each_rule_can_fail(rule: str) -> None:
     heap, name, handle, path = CORRUPTIONS[rule]()
-    heapkit.check(_tens())                      # the uncorrupted heap passes
+    heapkit.check(_tens())  # the uncorrupted heap passes
     assert_breaks(heap, name, handle, path)
 
 
 def test_pending_positions_are_exempt_until_settled() -> None:
     h: WeakHeap[int, int] = WeakHeap([(5, 0)])
     h.peek()
-    h.push(1, 1)                                # below the root, but pending
+    h.push(1, 1)  # below the root, but pending
     assert heapkit.check(h).details["pending"] == 1
-    assert h.peek().key == 1                    # settles; Source: min() of the keys
+    assert h.peek().key == 1  # settles; Source: min() of the keys
     assert heapkit.check(h).details["pending"] == 0
 
 
 # --- a raising < or bool() -----------------------------------------------------------
+
 
 class Boom(Exception):
     pass
@@ -238,7 +245,7 @@ OPS = ["push", "peek", "pop", "decrease_key", "change_key up", "change_key down"
 @pytest.mark.parametrize("op", OPS)
 def test_a_raising_comparison_or_truth_value_loses_nothing(op: str, stable: bool, mode: str) -> None:
     Touchy.mode = mode
-    for pending in (False, True):               # with and without pushes left to settle
+    for pending in (False, True):  # with and without pushes left to settle
         budget = 0
         while True:
             rng = random.Random(budget)
@@ -263,7 +270,7 @@ def test_a_raising_comparison_or_truth_value_loses_nothing(op: str, stable: bool
             finally:
                 Touchy.budget = None
             out = [h.pop()[0].v for _ in range(len(h))]
-            assert out == sorted(out)           # Source: Python's sorted()
+            assert out == sorted(out)  # Source: Python's sorted()
             budget += 1
 
 

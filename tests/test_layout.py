@@ -25,8 +25,17 @@ KINDS_DIR = Path(heapkit.__file__).parent / "kinds"
 CONTRACTS_DIR = Path(heapkit.__file__).parent / "contracts"
 
 #: The hooks checked mode, the checker, ``to_dot`` and the auditor look up on a heap.
-SPI_HOOKS = ("_survey", "_touched", "_survey_local", "_dot_edges", "_layout_problem",
-             "_phi", "_cost_probe", "_cost", "_bound")
+SPI_HOOKS = (
+    "_survey",
+    "_touched",
+    "_survey_local",
+    "_dot_edges",
+    "_layout_problem",
+    "_phi",
+    "_cost_probe",
+    "_cost",
+    "_bound",
+)
 
 
 def _package(kind: str) -> str:
@@ -56,8 +65,11 @@ def test_no_flat_kind_modules_are_left() -> None:
 
 def test_every_kind_module_stays_under_500_lines() -> None:
     # style.md: modules under 500 lines
-    long = {str(p.relative_to(KINDS_DIR)): n for p in KINDS_DIR.rglob("*.py")
-            if (n := len(p.read_text().splitlines())) >= 500}
+    long = {
+        str(p.relative_to(KINDS_DIR)): n
+        for p in KINDS_DIR.rglob("*.py")
+        if (n := len(p.read_text().splitlines())) >= 500
+    }
     assert long == {}
 
 

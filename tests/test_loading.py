@@ -50,9 +50,7 @@ def test_stable_order_survives_pickle_into_a_new_process(name: str) -> None:
     pairs = [(5, f"old{i}") for i in range(4)] + [(3, "low"), (7, "high")]
     h = make(name, True, pairs)
     blob = pickle.dumps(h)
-    done = subprocess.run(
-        [sys.executable, "-c", CHILD], input=blob, capture_output=True, cwd=ROOT, check=True
-    )
+    done = subprocess.run([sys.executable, "-c", CHILD], input=blob, capture_output=True, cwd=ROOT, check=True)
     orders = eval(done.stdout.decode())  # the child prints a list of lists of str
     # Outside check: Python's sort is stable (Python docs, "Sorting HOW TO"), so
     # sorting (key, value) pairs by key gives push order among equal keys.

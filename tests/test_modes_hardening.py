@@ -63,31 +63,31 @@ def test_checked_mode_returns_the_result_when_its_own_check_meets_a_raising_key(
     for k in KEYS:
         h.push(Budget(k), k)
     h.pop()
-    Budget.left = need                     # enough for the operation, none for the check after it
+    Budget.left = need  # enough for the operation, none for the check after it
     try:
         got = h.pop() if op == "pop" else h.push(Budget(-1), -1)
     finally:
         Budget.left = None
     if op == "pop":
-        assert got[0].v == 1 and len(h) == 8   # source: sorted(KEYS)[1], the popped entry is returned
+        assert got[0].v == 1 and len(h) == 8  # source: sorted(KEYS)[1], the popped entry is returned
     else:
         assert got.alive and got in h and len(h) == 10
     rest = sorted(x.key.v for x in h)
-    h.push(Budget(100), 100)                # the deferred full check runs here, and passes
+    h.push(Budget(100), 100)  # the deferred full check runs here, and passes
     assert [h.pop()[0].v for _ in range(len(h))] == [*rest, 100]  # source: sorted
 
 
 def test_a_checked_lazy_pop_interrupted_in_its_peek_leaves_no_stuck_heap() -> None:
     h = checked(LazyHeap())
     handles = [h.push(Budget(k), k) for k in KEYS]
-    h.remove(handles[KEYS.index(0)])        # the top: now a stale entry on top
+    h.remove(handles[KEYS.index(0)])  # the top: now a stale entry on top
     Budget.left = 0
     try:
         with pytest.raises(TypeError):
             h.pop()
     finally:
         Budget.left = None
-    h.push(Budget(11), 11)                  # used to raise "in the middle of pop" forever
+    h.push(Budget(11), 11)  # used to raise "in the middle of pop" forever
     assert [h.pop()[0].v for _ in range(len(h))] == sorted([k for k in KEYS if k != 0] + [11])  # source: sorted
 
 
@@ -114,8 +114,8 @@ def test_auditing_a_lazy_heap_leaves_the_kinds_ordering_objects(stable: bool) ->
     with audit(h):
         for p in (4, 0, 9, 2):
             h.push(Tagged(p), p)
-    h.push(Tagged(3), 3)                    # first push after the audit
-    heapkit.check(h)                        # "bare-keys" failed here
+    h.push(Tagged(3), 3)  # first push after the audit
+    heapkit.check(h)  # "bare-keys" failed here
     assert [h.pop()[1] for _ in range(len(h))] == [0, 1, 2, 3, 4, 5, 9]  # source: sorted
 
 
@@ -127,10 +127,10 @@ def test_an_audited_pairing_heap_whose_meld_failed_goes_on() -> None:
         Budget.left = 0
         try:
             with pytest.raises(TypeError):
-                a.meld(b)                   # the roots' comparison raises
+                a.meld(b)  # the roots' comparison raises
         finally:
             Budget.left = None
-        a.push(Budget(1), 1)                # raised "potential cache missing"
+        a.push(Budget(1), 1)  # raised "potential cache missing"
         a.pop()
     assert [r.op for r in led.records] == ["pop", "push", "pop"]
     assert led.phi_end == pytest.approx(heapkit.check(a).potential)
@@ -190,8 +190,10 @@ def test_the_guard_is_not_fooled_by_a_subclass_in_the_keys_module() -> None:
 @pytest.mark.parametrize("top", [0, -1, "3", 2.5, True])
 def test_audit_refuses_a_bad_top_before_anything_happens(top: Any) -> None:
     h = PairingHeap([(2, "b"), (1, "a")])
-    with pytest.raises(ValueError, match=f"top must be an integer of at least 1, got {top!r}"), \
-            audit(h, keep="totals", top=top):
+    with (
+        pytest.raises(ValueError, match=f"top must be an integer of at least 1, got {top!r}"),
+        audit(h, keep="totals", top=top),
+    ):
         h.pop()
     assert len(h) == 2 and type(h) is PairingHeap
 

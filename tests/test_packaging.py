@@ -19,7 +19,11 @@ ROOT = Path(__file__).resolve().parent.parent
 
 def _python(code: str, **env: str) -> str:
     run = subprocess.run(
-        [sys.executable, "-c", code], cwd=ROOT, capture_output=True, text=True, timeout=120,
+        [sys.executable, "-c", code],
+        cwd=ROOT,
+        capture_output=True,
+        text=True,
+        timeout=120,
         env={k: v for k, v in os.environ.items() if k != "HEAPKIT_DEBUG"} | env,
     )
     assert run.returncode == 0, run.stderr
@@ -28,11 +32,19 @@ def _python(code: str, **env: str) -> str:
 
 def test_import_heapkit_leaves_the_machinery_unloaded() -> None:
     loaded = _python(
-        "import sys; import heapkit; heapkit.new('pairing', [(1, 'a')]).pop(); "
-        "print(' '.join(sorted(sys.modules)))"
+        "import sys; import heapkit; heapkit.new('pairing', [(1, 'a')]).pop(); print(' '.join(sorted(sys.modules)))"
     ).split()
-    for heavy in ("heapkit.audit", "heapkit.contracts", "heapkit.threads", "heapkit.trace", "heapkit.ledger",
-                  "logging", "dataclasses", "inspect", "ast"):
+    for heavy in (
+        "heapkit.audit",
+        "heapkit.contracts",
+        "heapkit.threads",
+        "heapkit.trace",
+        "heapkit.ledger",
+        "logging",
+        "dataclasses",
+        "inspect",
+        "ast",
+    ):
         assert heavy not in loaded, heavy
 
 

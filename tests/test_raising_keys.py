@@ -64,8 +64,9 @@ def _ops(rng: random.Random) -> dict[str, Callable[[Any, list[Any]], Any]]:
 
 
 @pytest.mark.parametrize("mode", MODES)
-@pytest.mark.parametrize(("kind", "stable"), [v for v in VARIANTS
-                                              if not getattr(heapkit.KINDS[v[0]], "MONOTONE", False)])
+@pytest.mark.parametrize(
+    ("kind", "stable"), [v for v in VARIANTS if not getattr(heapkit.KINDS[v[0]], "MONOTONE", False)]
+)
 def test_a_raising_comparison_changes_nothing(kind: str, stable: bool, mode: str) -> None:
     for seed in range(3):
         for name in _ops(random.Random(0)):

@@ -36,7 +36,10 @@ def test_first_snippet_type_checks_with_mypy(tmp_path: Path) -> None:
     (tmp_path / "first.py").write_text(first)
     run = subprocess.run(
         [sys.executable, "-m", "mypy", "--strict", "--cache-dir", str(ROOT / ".mypy_cache"), "first.py"],
-        cwd=tmp_path, capture_output=True, text=True, timeout=300,
+        cwd=tmp_path,
+        capture_output=True,
+        text=True,
+        timeout=300,
     )
     assert run.returncode == 0, run.stdout + run.stderr
 
@@ -95,8 +98,9 @@ def test_public_names_table_covers_everything_exported() -> None:
 def test_protocol_members_have_docstrings_and_no_missing_file() -> None:
     for proto in (heapkit.Heap, heapkit.Handle):
         members = [n for n, v in vars(proto).items() if callable(v) or isinstance(v, property)]
-        members = [n for n in members if not n.startswith("_") or n in ("__len__", "__bool__", "__iter__",
-                                                                         "__contains__")]
+        members = [
+            n for n in members if not n.startswith("_") or n in ("__len__", "__bool__", "__iter__", "__contains__")
+        ]
         assert len(members) >= (13 if proto is heapkit.Heap else 3)
         for name in members:
             doc = getattr(proto, name).__doc__

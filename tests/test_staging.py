@@ -120,7 +120,7 @@ def test_a_key_mutated_in_place_is_named_as_the_likely_cause() -> None:
     for k in keys:
         h.push(k, k[0])
     h.pop()
-    keys[2][0] = 0                      # 8 becomes 0 in place: below the root
+    keys[2][0] = 0  # 8 becomes 0 in place: below the root
     with pytest.raises(heapkit.HistoryError) as info:
         for _ in range(10):
             h.push([20], 20)
@@ -172,7 +172,7 @@ def test_a_collector_combines_the_ledgers_of_many_heaps_per_kind() -> None:
     pool = auditing.Collector()
     auditing.configure(report=pool)
     try:
-        for n in range(50):                   # one heap per "request"
+        for n in range(50):  # one heap per "request"
             h = make("pairing" if n % 2 else "binary")
             auditing.attach(h)
             for k in range(5):
@@ -230,7 +230,7 @@ def test_plot_renders_10_to_the_5_records(tmp_path: Any) -> None:
     led = Ledger("pairing", "links", 1.0)
     rng = random.Random(4)
     phi = 0.0
-    for i in range(100_000):                  # invented records: this test is about rendering
+    for i in range(100_000):  # invented records: this test is about rendering
         code = rng.choice((0, 2, 3))
         a = rng.randint(1, 30 if code == 2 else 3)
         after = max(0.0, phi + rng.uniform(-2.0, 2.0))

@@ -152,12 +152,17 @@ def test_adapt_maps_other_names() -> None:
     q.push(3, "c")
     q.push(1, "a")
     assert q.peek().key == 1 and q.pop() == (1, "a") and len(q) == 1
-    assert_conforms(lambda: adapt(Jobs(), push="add", pop="take", peek=lambda j: j.q.peek()),
-                    decrease_key=False, change_key=False, remove=False, meld=False, max_examples=20)
+    assert_conforms(
+        lambda: adapt(Jobs(), push="add", pop="take", peek=lambda j: j.q.peek()),
+        decrease_key=False,
+        change_key=False,
+        remove=False,
+        meld=False,
+        max_examples=20,
+    )
 
 
-@given(ks=st.lists(strategies.keys(), min_size=5), ts=st.lists(strategies.tuple_keys()),
-       ops=strategies.operations())
+@given(ks=st.lists(strategies.keys(), min_size=5), ts=st.lists(strategies.tuple_keys()), ops=strategies.operations())
 def test_strategies_draw_what_they_promise(ks: list[Any], ts: list[Any], ops: list[Any]) -> None:
     assert all(k == k for k in ks)  # never NaN
     assert all(isinstance(t, tuple) and len(t) == 2 for t in ts)

@@ -71,6 +71,7 @@ def test_eight_threads_lose_nothing(name: str) -> None:
 
 # --- one lock per heap, and check under it (issue 12, "locked()") ----------------------
 
+
 def test_every_wrapper_of_one_heap_holds_the_same_lock() -> None:
     h = heapkit.BinaryHeap()
     a, b = heapkit.locked(h), heapkit.locked(h)
@@ -194,6 +195,7 @@ def test_check_during_concurrent_use_reports_no_false_failure() -> None:
 
 
 # --- blocking under load (issue 16) ---------------------------------------------------
+
 
 def _stress(name: str, ops: int) -> None:
     """8 threads, ``ops`` operations each, on one heap: pushes, re-prioritising, cancelling

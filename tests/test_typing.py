@@ -25,7 +25,10 @@ ERROR = re.compile(r"^(?P<file>[^:]+):(?P<line>\d+): error: .*\[(?P<code>[a-z-]+
 def _mypy(*args: str, cwd: Path = ROOT) -> subprocess.CompletedProcess[str]:
     return subprocess.run(
         [sys.executable, "-m", "mypy", "--strict", "--cache-dir", str(CACHE), "--no-error-summary", *args],
-        cwd=cwd, capture_output=True, text=True, timeout=300,
+        cwd=cwd,
+        capture_output=True,
+        text=True,
+        timeout=300,
     )
 
 

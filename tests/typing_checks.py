@@ -135,8 +135,17 @@ def radix_takes_two_type_parameters() -> None:
 
 def every_kind_is_a_heap() -> None:
     kinds: list[Heap[int, str]] = [
-        BinaryHeap(), BinomialHeap(), DaryHeap(), FibonacciHeap(), HollowHeap(),
-        LazyHeap(), PairingHeap(), RadixHeap(), RankPairingHeap(), WeakHeap(), heapkit.locked(PairingHeap()),
+        BinaryHeap(),
+        BinomialHeap(),
+        DaryHeap(),
+        FibonacciHeap(),
+        HollowHeap(),
+        LazyHeap(),
+        PairingHeap(),
+        RadixHeap(),
+        RankPairingHeap(),
+        WeakHeap(),
+        heapkit.locked(PairingHeap()),
     ]
     for q in kinds:
         q.meld(heapkit.new("pairing"))  # same kind needed at run time (TypeError otherwise)
